@@ -1,0 +1,31 @@
+// Stormledger — Nuxt 4 with the root layout (pages/, components/, server/ at the top).
+export default defineNuxtConfig({
+  compatibilityDate: '2026-11-01',
+  srcDir: '.',
+  dir: { app: 'app' },
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
+  css: ['@fontsource/lato/400.css', '@fontsource/lato/700.css', '@fontsource/lato/400-italic.css', '~/assets/css/main.css'],
+  devtools: { enabled: false },
+  telemetry: false,
+  app: {
+    head: {
+      title: 'Stormledger',
+      htmlAttrs: { lang: 'en' },
+      meta: [{ name: 'description', content: 'Lightning-ignition risk for fleets of non-conducting storage tanks' }],
+      link: [{ rel: 'icon', type: 'image/svg+xml', href: '/favicon.svg' }],
+    },
+  },
+  runtimeConfig: {
+    databaseUrl: '',
+    publicUrl: 'http://localhost:3000',
+    smtp: { host: '127.0.0.1', port: 2525, secure: false, user: '', password: '', from: 'Stormledger <no-reply@stormledger.local>', captured: true },
+    public: { appVersion: '' },
+  },
+  typescript: { strict: true },
+  nitro: {
+    experimental: { tasks: false },
+  },
+  vite: {
+    optimizeDeps: { include: ['echarts/core', 'echarts/charts', 'echarts/components', 'echarts/renderers', 'vue-echarts', 'zod', 'seedrandom', 'jstat'] },
+  },
+})

@@ -1,0 +1,67 @@
+// Runs the production server, one background worker and (unless real SMTP is configured) the local
+// mail fake, and stops them all cleanly on Ctrl-C. Used by `npm start` after set-up.
+import { spawn, type ChildProcess } from 'node:child_process'
+import { resolve } from 'node:path'
+import { settings } from '../server/settings'
+import { startMailFake } from '../server/mail/fake-smtp'
+import { closeDb } from '../server/db/index'
+import { sessionSecret } from './session-secret'
+import { demoSignIns } from './demo-sign-ins'
+
+const root = resolve(import.meta.dirname, '..')
+const port = Number(process.env.PORT ?? 3000)
+const env = { ...process.env, NUXT_SESSION_PASSWORD: sessionSecret(root), PORT: String(port), STORMLEDGER_ROOT: root }
+const children: ChildProcess[] = []
+let stopping = false
+
+function run(name: string, command: string, args: string[]): ChildProcess {
+  const child = spawn(command, args, { cwd: root, env, stdio: 'inherit' })
+  child.on('exit', (code, signal) => {
+    if (!stopping) {
+      console.error(`[start] ${name} stopped unexpectedly (${signal ?? `exit ${code}`}); stopping everything`)
+      void stop(1)
+    }
+  })
+  children.push(child)
+  return child
+}
+
+async function stop(code = 0) {
+  if (stopping) return
+  stopping = true
+  console.log('\n[start] stopping the server and the worker…')
+  await Promise.all(children.map(c => new Promise<void>((done) => {
+    if (c.exitCode !== null || c.signalCode !== null) return done()
+    c.once('exit', () => done())
+    c.kill('SIGTERM')
+    setTimeout(() => c.kill('SIGKILL'), 15_000).unref()
+  })))
+  await closeDb().catch(() => {})
+  console.log('[start] stopped. PostgreSQL keeps running; `npm run db:stop` stops it.')
+  process.exit(code)
+}
+
+process.on('SIGINT', () => void stop(0))
+process.on('SIGTERM', () => void stop(0))
+
+if (settings.mail.captured) {
+  await startMailFake(settings.mail.port)
+  console.log(`[start] mail fake listening on 127.0.0.1:${settings.mail.port} (messages appear under Admin → Mailbox)`)
+}
+run('worker', resolve(root, 'node_modules/.bin/tsx'), ['server/jobs/worker.ts'])
+run('server', process.execPath, ['.output/server/index.mjs'])
+
+const url = `http://localhost:${port}`
+for (let i = 0; i < 120; i++) {
+  const ok = await fetch(`${url}/api/health`).then(r => r.ok).catch(() => false)
+  if (ok) break
+  await new Promise(r => setTimeout(r, 500))
+}
+console.log(`\n  Stormledger is running at ${url}\n`)
+const signIns = await demoSignIns()
+if (signIns.length > 0) {
+  console.log('  Demo sign-ins (password for all: see below):')
+  for (const s of signIns) console.log(`    ${s.organisation.padEnd(28)} ${s.role.padEnd(14)} ${s.email}`)
+  console.log(`    password: ${signIns[0]!.password}\n`)
+}
+console.log('  Ctrl-C stops the app and the worker.\n')

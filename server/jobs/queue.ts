@@ -1,0 +1,49 @@
+// pg-boss on the application's PostgreSQL: one instance per process, queues created on start.
+import PgBoss from 'pg-boss'
+import { databaseUrl } from '../db/config'
+import type { JobName, JobPayloads } from './types'
+
+/** Queue options per job; every queue the product uses is listed here. */
+export const queueOptions: Record<JobName, Omit<PgBoss.Queue, 'name'>> = {
+  'mail.send': { retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 60 },
+}
+
+let boss: PgBoss | undefined
+let starting: Promise<PgBoss> | undefined
+
+/** Starts (once) and returns this process's pg-boss. `supervise` runs maintenance; workers do it. */
+export function useBoss(options: { supervise?: boolean } = {}): Promise<PgBoss> {
+  starting ??= (async () => {
+    const instance = new PgBoss({
+      connectionString: databaseUrl(),
+      schema: 'pgboss',
+      max: 4,
+      supervise: options.supervise ?? false,
+      schedule: false,
+      application_name: 'stormledger',
+    })
+    instance.on('error', err => console.error('[queue]', err.message))
+    await instance.start()
+    for (const [name, opts] of Object.entries(queueOptions)) {
+      if (!(await instance.getQueue(name))) await instance.createQueue(name, { name, ...opts })
+    }
+    boss = instance
+    return instance
+  })().catch((error) => {
+    starting = undefined
+    throw error
+  })
+  return starting
+}
+
+export async function enqueue<K extends JobName>(name: K, payload: JobPayloads[K], options: PgBoss.SendOptions = {}): Promise<string | null> {
+  const b = await useBoss()
+  return b.send(name, payload as object, options)
+}
+
+export async function stopBoss(): Promise<void> {
+  const b = boss
+  boss = undefined
+  starting = undefined
+  await b?.stop({ graceful: true, wait: true, timeout: 10_000 })
+}

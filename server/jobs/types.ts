@@ -1,0 +1,6 @@
+// Every background job's name and payload, in one map.
+export interface JobPayloads {
+  'mail.send': { to: string, subject: string, text: string }
+}
+
+export type JobName = keyof JobPayloads

@@ -1,0 +1,32 @@
+// The background worker: `npm run worker` (npm start runs one beside the server).
+// Any number may run, here or on other machines pointed at the same DATABASE_URL.
+import { closeDb } from '../db/index'
+import { stopBoss, useBoss } from './queue'
+import { jobRegistry } from './registry'
+import type { JobName } from './types'
+
+async function main() {
+  const boss = await useBoss({ supervise: true })
+  for (const name of Object.keys(jobRegistry) as JobName[]) {
+    const entry = jobRegistry[name]
+    await boss.work(name, entry.work, entry.handler as Parameters<typeof boss.work>[2])
+  }
+  console.log(`[worker] ready (pid ${process.pid}); queues: ${Object.keys(jobRegistry).join(', ')}`)
+}
+
+let stopping = false
+async function shutdown(signal: string) {
+  if (stopping) return
+  stopping = true
+  console.log(`[worker] ${signal}: finishing current jobs, then stopping`)
+  await stopBoss().catch(() => {})
+  await closeDb().catch(() => {})
+  process.exit(0)
+}
+process.on('SIGINT', () => void shutdown('SIGINT'))
+process.on('SIGTERM', () => void shutdown('SIGTERM'))
+
+main().catch((error) => {
+  console.error(`[worker] could not start: ${(error as Error).message}`)
+  process.exit(1)
+})

@@ -1,0 +1,42 @@
+// The local SMTP fake: accepts every message on 127.0.0.1 and stores it in PostgreSQL (captured_mail),
+// where the admin Mailbox page and the tests read it. Never used when real SMTP is configured.
+import { simpleParser } from 'mailparser'
+import { SMTPServer } from 'smtp-server'
+import { useDb } from '../db/index'
+import { capturedMail } from '../db/schema'
+
+export async function startMailFake(port: number): Promise<SMTPServer> {
+  const server = new SMTPServer({
+    authOptional: true,
+    disabledCommands: ['STARTTLS'],
+    logger: false,
+    size: 5 * 1024 * 1024,
+    onData(stream, session, callback) {
+      const chunks: Buffer[] = []
+      stream.on('data', (c: Buffer) => chunks.push(c))
+      stream.on('end', () => {
+        const raw = Buffer.concat(chunks)
+        storeMessage(raw, session.envelope.rcptTo.map(r => r.address), session.envelope.mailFrom ? session.envelope.mailFrom.address : '')
+          .then(() => callback())
+          .catch((error: Error) => callback(error))
+      })
+    },
+  })
+  await new Promise<void>((resolve, reject) => {
+    server.once('error', reject)
+    server.listen(port, '127.0.0.1', () => resolve())
+  })
+  server.on('error', err => console.error('[mail] SMTP fake error:', err.message))
+  return server
+}
+
+async function storeMessage(raw: Buffer, to: string[], from: string): Promise<void> {
+  const parsed = await simpleParser(raw)
+  await useDb().insert(capturedMail).values({
+    fromAddress: from,
+    toAddresses: to.join(', '),
+    subject: parsed.subject ?? '(no subject)',
+    textBody: parsed.text ?? '',
+    raw: raw.toString('utf8'),
+  })
+}

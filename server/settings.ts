@@ -1,0 +1,28 @@
+// Settings read from the environment, shared by the web server, the worker and the scripts.
+// README.md "Configuration" lists every variable with its default.
+
+function flag(name: string, fallback: boolean): boolean {
+  const v = process.env[name]
+  if (v === undefined || v === '') return fallback
+  return ['1', 'true', 'yes', 'on'].includes(v.toLowerCase())
+}
+
+export const settings = {
+  /** The address people open; used in e-mailed links. */
+  get publicUrl() { return (process.env.STORMLEDGER_PUBLIC_URL ?? `http://localhost:${process.env.PORT ?? 3000}`).replace(/\/$/, '') },
+  get mail() {
+    const realSmtp = Boolean(process.env.SMTP_HOST)
+    return {
+      /** With no SMTP_HOST, mail goes to the local capturing fake (development, tests, demo). */
+      captured: !realSmtp,
+      host: process.env.SMTP_HOST ?? '127.0.0.1',
+      port: Number(process.env.SMTP_PORT ?? (realSmtp ? 587 : process.env.STORMLEDGER_MAIL_FAKE_PORT ?? 2525)),
+      secure: flag('SMTP_SECURE', false),
+      user: process.env.SMTP_USER ?? '',
+      password: process.env.SMTP_PASSWORD ?? '',
+      from: process.env.MAIL_FROM ?? 'Stormledger <no-reply@stormledger.invalid>',
+    }
+  },
+  /** Worker threads per worker process; defaults to every core. */
+  get workerThreads() { return Number(process.env.STORMLEDGER_WORKER_THREADS ?? 0) || undefined },
+}

@@ -1,0 +1,31 @@
+// The audit trail: who did what to which record, with the state before and after.
+import type { H3Event } from 'h3'
+import { useDb, type Database } from '../db'
+import { auditEvents } from '../db/schema'
+
+type Executor = Pick<Database, 'insert'>
+
+export interface AuditEntry {
+  organisationId: string | null
+  userId: string | null
+  action: string
+  entity: string
+  entityId?: string | null
+  before?: unknown
+  after?: unknown
+}
+
+/** Records one change. Pass the transaction so the record commits (or rolls back) with the change. */
+export async function recordAudit(entry: AuditEntry, options: { tx?: Executor, event?: H3Event } = {}): Promise<void> {
+  const executor = options.tx ?? useDb()
+  await executor.insert(auditEvents).values({
+    organisationId: entry.organisationId,
+    userId: entry.userId,
+    action: entry.action,
+    entity: entry.entity,
+    entityId: entry.entityId ?? null,
+    before: entry.before ?? null,
+    after: entry.after ?? null,
+    ipAddress: options.event ? getRequestIP(options.event, { xForwardedFor: false }) ?? null : null,
+  })
+}

@@ -1,0 +1,76 @@
+// Number and unit formatting used by every screen and export: one way to write a figure.
+
+const SUPERSCRIPT: Record<string, string> = {
+  '-': '⁻', '0': '⁰', '1': '¹', '2': '²', '3': '³', '4': '⁴', '5': '⁵', '6': '⁶', '7': '⁷', '8': '⁸', '9': '⁹',
+}
+
+const toSuperscript = (n: number) => String(n).split('').map(c => SUPERSCRIPT[c] ?? c).join('')
+
+/** Round to `digits` significant figures (0 stays 0). */
+export function roundSignificant(value: number, digits = 2): number {
+  if (value === 0 || !Number.isFinite(value)) return value
+  const magnitude = Math.floor(Math.log10(Math.abs(value)))
+  const factor = 10 ** (digits - 1 - magnitude)
+  return Math.round(value * factor) / factor
+}
+
+/**
+ * A number for reading: plain between 0.01 and 100 000, otherwise "1.2 × 10⁻³".
+ * `digits` are significant figures.
+ */
+export function formatNumber(value: number | null | undefined, digits = 2): string {
+  if (value === null || value === undefined || Number.isNaN(value)) return '—'
+  if (!Number.isFinite(value)) return value > 0 ? '∞' : '−∞'
+  if (value === 0) return '0'
+  const abs = Math.abs(value)
+  if (abs >= 0.01 && abs < 100_000) {
+    const rounded = roundSignificant(value, digits)
+    const decimals = Math.max(0, digits - 1 - Math.floor(Math.log10(abs)))
+    return rounded.toLocaleString('en-GB', { minimumFractionDigits: Math.min(decimals, 6), maximumFractionDigits: Math.min(decimals, 6) })
+  }
+  const exponent = Math.floor(Math.log10(abs))
+  let mantissa = roundSignificant(value / 10 ** exponent, digits)
+  let exp = exponent
+  if (Math.abs(mantissa) >= 10) { mantissa /= 10; exp += 1 }
+  return `${mantissa.toFixed(digits - 1)} × 10${toSuperscript(exp)}`
+}
+
+/** An annual frequency: "1.2 × 10⁻³ /yr". */
+export function formatFrequency(perYear: number | null | undefined, digits = 2): string {
+  if (perYear === null || perYear === undefined || Number.isNaN(perYear)) return '—'
+  return `${formatNumber(perYear, digits)} /yr`
+}
+
+/** The return period of an annual frequency: "once in 830 years" (two significant figures). */
+export function formatOnceIn(perYear: number | null | undefined): string {
+  if (perYear === null || perYear === undefined || Number.isNaN(perYear)) return '—'
+  if (perYear <= 0) return 'never in the simulation'
+  const years = 1 / perYear
+  if (years < 1) return `${formatNumber(perYear, 2)} times a year`
+  const rounded = roundSignificant(years, 2)
+  return `once in ${rounded.toLocaleString('en-GB')} year${rounded === 1 ? '' : 's'}`
+}
+
+/** A value with its interval: "0.012 /yr (0.010–0.014)". */
+export function formatInterval(value: number, low: number, high: number, unit = '', digits = 2): string {
+  const u = unit ? ` ${unit}` : ''
+  return `${formatNumber(value, digits)}${u} (${formatNumber(low, digits)}–${formatNumber(high, digits)})`
+}
+
+export const formatCurrent = (kA: number | null | undefined) => (kA === null || kA === undefined ? '—' : `${formatNumber(kA, 3)} kA`)
+export const formatPotential = (kV: number | null | undefined) => (kV === null || kV === undefined ? '—' : `${formatNumber(kV, 3)} kV`)
+export const formatLength = (m: number | null | undefined) => (m === null || m === undefined ? '—' : `${formatNumber(m, 3)} m`)
+export const formatFlashDensity = (ng: number | null | undefined) => (ng === null || ng === undefined ? '—' : `${formatNumber(ng, 3)} flashes/km²/yr`)
+
+/** Money in the organisation's currency with thousands separators: "USD 1,250,000". */
+export function formatMoney(amount: number | null | undefined, currency = 'USD', fractionDigits = 0): string {
+  if (amount === null || amount === undefined || Number.isNaN(amount)) return '—'
+  const n = amount.toLocaleString('en-GB', { minimumFractionDigits: fractionDigits, maximumFractionDigits: fractionDigits })
+  return `${currency} ${n}`
+}
+
+/** A share as a percentage: 0.1234 → "12.3 %". */
+export function formatShare(share: number | null | undefined, digits = 3): string {
+  if (share === null || share === undefined || Number.isNaN(share)) return '—'
+  return `${formatNumber(share * 100, digits)} %`
+}

@@ -1,0 +1,25 @@
+// The sections of the left rail (SCREENS.md "Frame") and which roles see each.
+export type RoleName = 'admin' | 'analyst' | 'underwriter' | 'asset_manager' | 'viewer'
+
+export interface NavSection {
+  label: string
+  to: string
+  /** Roles that see the section; undefined = every member. */
+  roles?: RoleName[]
+}
+
+export const navSections: NavSection[] = [
+  { label: 'Overview', to: '/overview' },
+  { label: 'Portfolios', to: '/portfolios' },
+  { label: 'Sites', to: '/sites' },
+  { label: 'Runs', to: '/runs' },
+  { label: 'Assumptions', to: '/assumptions' },
+  { label: 'Capital plan', to: '/capital-plan', roles: ['admin', 'analyst', 'asset_manager', 'underwriter', 'viewer'] },
+  { label: 'Calibration', to: '/calibration', roles: ['admin', 'analyst'] },
+  { label: 'Admin', to: '/admin', roles: ['admin'] },
+]
+
+export function sectionsForRole(role: RoleName | null | undefined): NavSection[] {
+  if (!role) return []
+  return navSections.filter(s => !s.roles || s.roles.includes(role))
+}

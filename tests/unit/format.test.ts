@@ -1,0 +1,38 @@
+import { describe, expect, it } from 'vitest'
+import { formatFrequency, formatInterval, formatMoney, formatNumber, formatOnceIn, formatCurrent, formatPotential, roundSignificant } from '../../shared/format'
+
+describe('formatting for reading', () => {
+  it('writes small frequencies in scientific notation with superscripts', () => {
+    // Expected strings: the house style example in SCREENS.md / STYLE.md ("1.2 × 10⁻³ /yr").
+    expect(formatFrequency(1.2e-3)).toBe('1.2 × 10⁻³ /yr')
+    expect(formatFrequency(0.0000456)).toBe('4.6 × 10⁻⁵ /yr')
+  })
+
+  it('states the return period with two significant figures', () => {
+    // 1 / 1.2e-3 = 833.3 years; two significant figures → 830 (STYLE.md example "once in 830 years").
+    expect(formatOnceIn(1.2e-3)).toBe('once in 830 years')
+    expect(formatOnceIn(0.1)).toBe('once in 10 years')
+    expect(formatOnceIn(0)).toBe('never in the simulation')
+    expect(formatOnceIn(3)).toBe('3.0 times a year')
+  })
+
+  it('writes intervals as value (low–high)', () => {
+    // SCREENS.md example: "0.012 /yr (0.010–0.014)".
+    expect(formatInterval(0.012, 0.01, 0.014, '/yr')).toBe('0.012 /yr (0.010–0.014)')
+  })
+
+  it('keeps plain numbers plain and rounds to significant figures', () => {
+    // Arithmetic, common practice.
+    expect(roundSignificant(833.33, 2)).toBe(830)
+    expect(formatNumber(38.85, 3)).toBe('38.9')
+    expect(formatNumber(250000, 2)).toBe('2.5 × 10⁵')
+    expect(formatNumber(Number.NaN)).toBe('—')
+  })
+
+  it('puts units beside physical quantities and money', () => {
+    // Units fixed by MODEL.md (kA, kV); thousands separators: common practice.
+    expect(formatCurrent(31)).toBe('31.0 kA')
+    expect(formatPotential(38.8)).toBe('38.8 kV')
+    expect(formatMoney(1250000, 'EUR')).toBe('EUR 1,250,000')
+  })
+})
