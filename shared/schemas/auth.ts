@@ -1,0 +1,7 @@
+import { z } from 'zod'
+
+export const signInSchema = z.object({
+  email: z.string().trim().toLowerCase().email('Enter an e-mail address.'),
+  password: z.string().min(1, 'Enter your password.'),
+})
+export type SignInInput = z.infer<typeof signInSchema>

@@ -1,0 +1,69 @@
+// Arranging people for route tests: organisations, members with a role, signed-in clients.
+import { inject } from 'vitest'
+import type pg from 'pg'
+import { hashPasswordOutsideNitro } from '../../server/auth/passwords'
+
+export const TEST_PASSWORD = 'correct horse battery staple'
+export type RoleName = 'admin' | 'analyst' | 'underwriter' | 'asset_manager' | 'viewer'
+export const ALL_ROLES: RoleName[] = ['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer']
+
+let cachedHash: string | undefined
+async function testPasswordHash() {
+  cachedHash ??= await hashPasswordOutsideNitro(TEST_PASSWORD)
+  return cachedHash
+}
+
+export async function createOrganisation(pool: pg.Pool, name: string, kind = 'operator'): Promise<string> {
+  const { rows } = await pool.query(`INSERT INTO organisations (name, kind) VALUES ($1, $2) RETURNING id`, [name, kind])
+  return rows[0].id
+}
+
+export async function createMember(pool: pg.Pool, organisationId: string, role: RoleName, email?: string): Promise<{ userId: string, email: string }> {
+  const address = (email ?? `${role}.${Math.random().toString(36).slice(2, 8)}@example.test`).toLowerCase()
+  let { rows } = await pool.query(`SELECT id FROM users WHERE email = $1`, [address])
+  if (rows.length === 0) {
+    ({ rows } = await pool.query(`INSERT INTO users (email, name, password_hash) VALUES ($1, $2, $3) RETURNING id`, [address, `Test ${role}`, await testPasswordHash()]))
+  }
+  await pool.query(`INSERT INTO memberships (organisation_id, user_id, role) VALUES ($1, $2, $3)`, [organisationId, rows[0].id, role])
+  return { userId: rows[0].id, email: address }
+}
+
+/** A fetch client that keeps the session cookie. */
+export class Client {
+  cookie = ''
+  constructor(readonly baseUrl: string = inject('baseUrl')) {}
+
+  async request(method: string, path: string, body?: unknown, headers: Record<string, string> = {}): Promise<Response> {
+    const isForm = body instanceof FormData
+    const res = await fetch(`${this.baseUrl}${path}`, {
+      method,
+      headers: { ...(this.cookie ? { cookie: this.cookie } : {}), ...(body !== undefined && !isForm ? { 'content-type': 'application/json' } : {}), ...headers },
+      body: body === undefined ? undefined : isForm ? body : JSON.stringify(body),
+      redirect: 'manual',
+    })
+    const setCookie = res.headers.getSetCookie()
+    for (const c of setCookie) {
+      const pair = c.split(';')[0]!
+      if (pair.startsWith('nuxt-session=')) this.cookie = pair.endsWith('=') ? '' : pair
+    }
+    return res
+  }
+
+  get = (path: string) => this.request('GET', path)
+  post = (path: string, body?: unknown) => this.request('POST', path, body ?? {})
+  patch = (path: string, body?: unknown) => this.request('PATCH', path, body ?? {})
+  delete = (path: string) => this.request('DELETE', path)
+
+  async signIn(email: string, password = TEST_PASSWORD): Promise<Response> {
+    return this.post('/api/auth/sign-in', { email, password })
+  }
+}
+
+/** Signs in a new member of `organisationId` with `role` and returns their client. */
+export async function memberClient(pool: pg.Pool, organisationId: string, role: RoleName): Promise<Client> {
+  const { email } = await createMember(pool, organisationId, role)
+  const client = new Client()
+  const res = await client.signIn(email)
+  if (res.status !== 200) throw new Error(`sign-in failed for ${email}: ${res.status} ${await res.text()}`)
+  return client
+}
