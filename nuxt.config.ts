@@ -24,6 +24,12 @@ export default defineNuxtConfig({
   typescript: { strict: true },
   nitro: {
     experimental: { tasks: false },
+    // Node ≥ 20.19 resolves these packages (pulled in by ExcelJS) through their "module-sync" export,
+    // which Nitro's file tracing does not follow; ship those files explicitly.
+    externals: {
+      traceInclude: ['async-function', 'async-generator-function', 'generator-function']
+        .map(p => `node_modules/${p}/require.mjs`),
+    },
   },
   vite: {
     optimizeDeps: { include: ['echarts/core', 'echarts/charts', 'echarts/components', 'echarts/renderers', 'vue-echarts', 'zod', 'seedrandom', 'jstat'] },

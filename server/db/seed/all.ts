@@ -1,4 +1,5 @@
 // Registers every domain's demo seeder, in dependency order. Import this module for its effect.
 import { seeders } from './index'
+import { seedInventory } from './inventory'
 
-void seeders
+seeders.push({ name: 'inventory', run: seedInventory })

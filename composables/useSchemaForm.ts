@@ -1,0 +1,49 @@
+// A form validated by the same zod schema the route uses: messages by field, and the server's
+// field messages (400 with data.fields) shown in the same places.
+import type { z } from 'zod'
+
+export function useSchemaForm<T extends z.ZodType>(schema: T) {
+  const errors = ref<Record<string, string>>({})
+  const formError = ref('')
+  const saving = ref(false)
+
+  function validate(values: unknown): z.output<T> | null {
+    const parsed = schema.safeParse(values)
+    errors.value = {}
+    formError.value = ''
+    if (parsed.success) return parsed.data
+    for (const issue of parsed.error.issues) errors.value[issue.path.join('.')] ??= issue.message
+    formError.value = 'Some fields need attention; see the messages beside them.'
+    return null
+  }
+
+  /** Runs a request; a 400/409 from the server lands beside the fields or above the form. */
+  async function submit<R>(request: () => Promise<R>): Promise<R | null> {
+    saving.value = true
+    try {
+      return await request()
+    } catch (error) {
+      const e = error as { data?: { statusMessage?: string, message?: string, data?: { fields?: Record<string, string> } } }
+      errors.value = e.data?.data?.fields ?? {}
+      formError.value = e.data?.statusMessage ?? e.data?.message ?? 'The change could not be saved. Try again.'
+      return null
+    } finally {
+      saving.value = false
+    }
+  }
+
+  return { errors, formError, saving, validate, submit }
+}
+
+/** Whether the signed-in role may change the inventory (the server checks again). */
+export function useCanEditInventory() {
+  const { session } = useUserSession()
+  return computed(() => session.value?.role === 'admin' || session.value?.role === 'analyst')
+}
+
+/** An optional number input: '' → null. */
+export function numberOrNull(v: unknown): number | null {
+  if (v === '' || v === null || v === undefined) return null
+  const n = typeof v === 'number' ? v : Number(v)
+  return Number.isNaN(n) ? (v as number) : n
+}

@@ -1,0 +1,12 @@
+// POST /api/inventory/imports/:id/commit — write a previewed import in one transaction, or nothing
+// ({ portfolioId } optionally adds every site of the file to one of the organisation's portfolios).
+import { z } from 'zod'
+
+const body = z.object({ portfolioId: z.uuid().nullable().default(null) })
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.editors })
+  const id = routeUuid(event, 'Import')
+  const { portfolioId } = await readInventoryBody(event, body)
+  return commitImport(event, member, id, portfolioId)
+})

@@ -1,0 +1,14 @@
+// DELETE /api/portfolios/:id — remove a portfolio and its shares; its sites stay in the inventory.
+import { eq } from 'drizzle-orm'
+import { useDb } from '~~/server/db'
+import { portfolios } from '~~/server/db/schema'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.editors })
+  const before = await findEditablePortfolio(member, routeUuid(event, 'Portfolio'))
+  await useDb().transaction(async (tx) => {
+    await tx.delete(portfolios).where(eq(portfolios.id, before.id))
+    await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'delete', entity: 'portfolio', entityId: before.id, before }, { tx, event })
+  })
+  return { deleted: true }
+})

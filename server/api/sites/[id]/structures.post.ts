@@ -1,0 +1,17 @@
+// POST /api/sites/:id/structures — add a mast, stack, overhead ground wire support or building to a site.
+import { useDb } from '~~/server/db'
+import { siteStructures } from '~~/server/db/schema'
+import { structureSchema } from '~~/shared/schemas/inventory'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.editors })
+  const site = await findEditableSite(member, routeUuid(event, 'Site'))
+  const body = await readInventoryBody(event, structureSchema)
+  const created = await useDb().transaction(async (tx) => {
+    const [row] = await tx.insert(siteStructures).values({ ...body, siteId: site.id }).returning()
+    await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'create', entity: 'structure', entityId: row!.id, after: row }, { tx, event })
+    return row!
+  }).catch(e => rethrowUnique(e, STRUCTURE_UNIQUE))
+  setResponseStatus(event, 201)
+  return created
+})

@@ -1,0 +1,11 @@
+// GET /api/sites — one page of the sites the caller may read (own and shared), sorted and filtered on the server.
+import { useDb } from '~~/server/db'
+import { listSites } from '~~/server/inventory/queries'
+import { siteListQuerySchema } from '~~/shared/schemas/inventory'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event)
+  const query = await getValidatedQuery(event, siteListQuerySchema.parse)
+  if (query.portfolioId) await findReadablePortfolio(member, query.portfolioId)
+  return listSites(useDb(), member.organisationId, readableSites(member.organisationId), query)
+})

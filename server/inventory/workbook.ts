@@ -1,0 +1,205 @@
+// Reading and writing inventory files (XLSX through ExcelJS, CSV by hand): the template, the export,
+// and the first step of an import — the raw cells of each sheet. No Nuxt imports: the benchmark and
+// the seeder use it too.
+import ExcelJS from 'exceljs'
+import { neutraliseFormula } from '../../shared/csv'
+import { MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, SHEET_COLUMNS, SHEET_NAMES, type ColumnSpec, type SheetName } from '../../shared/inventory-layout'
+
+/** A problem with the file as a whole: nothing in it is looked at further. */
+export class ImportFileError extends Error {}
+
+export type RawCell = string | number | boolean | Date | { formula: string } | { error: string } | null
+
+export interface RawRow { rowNumber: number, cells: RawCell[] }
+export interface RawSheet { headers: string[], rows: RawRow[] }
+export type RawWorkbook = Partial<Record<SheetName, RawSheet>>
+
+export interface ParsedFile { kind: 'xlsx' | 'csv', sheets: RawWorkbook }
+
+const ZIP_MAGIC = [0x50, 0x4b, 0x03, 0x04]
+const OLE_MAGIC = [0xd0, 0xcf, 0x11, 0xe0]
+const startsWith = (buf: Uint8Array, magic: number[]) => magic.every((b, i) => buf[i] === b)
+
+/** Reads an uploaded file into raw sheets, or throws ImportFileError with a message a person can act on. */
+export async function readInventoryFile(data: Buffer, fileName: string): Promise<ParsedFile> {
+  if (data.length > MAX_IMPORT_BYTES) {
+    throw new ImportFileError(`The file is ${(data.length / 1024 / 1024).toFixed(1)} MB; the limit is ${MAX_IMPORT_BYTES / 1024 / 1024} MB. Split it into several files.`)
+  }
+  if (data.length === 0) throw new ImportFileError('The file is empty.')
+  const lower = fileName.toLowerCase()
+  if (startsWith(data, ZIP_MAGIC)) return { kind: 'xlsx', sheets: await readXlsx(data) }
+  if (startsWith(data, OLE_MAGIC)) throw new ImportFileError('This is an older .xls workbook. Open it in a spreadsheet program and save it as .xlsx, then upload it again.')
+  if (lower.endsWith('.xlsx')) throw new ImportFileError('The workbook could not be read: the file is damaged or is not really an .xlsx workbook. Open it in a spreadsheet program and save it again as .xlsx.')
+  if (!lower.endsWith('.csv') && !lower.endsWith('.txt')) {
+    throw new ImportFileError('Upload an .xlsx workbook (from the template) or a .csv file. This file is neither.')
+  }
+  if (data.includes(0)) throw new ImportFileError('This file is not a text CSV file (it contains binary data). Upload an .xlsx workbook or a .csv file.')
+  const text = data.toString('utf8').replace(/^\uFEFF/, '')
+  return { kind: 'csv', sheets: readCsv(text) }
+}
+
+// ---------------------------------------------------------------- XLSX
+
+async function readXlsx(data: Buffer): Promise<RawWorkbook> {
+  const workbook = new ExcelJS.Workbook()
+  try {
+    // Drop-down lists and formatting are not needed to read values; skipping them keeps large files fast.
+    await workbook.xlsx.load(data as unknown as ArrayBuffer, { ignoreNodes: ['dataValidations', 'conditionalFormatting', 'hyperlinks', 'drawing', 'legacyDrawing'] } as object)
+  } catch {
+    throw new ImportFileError('The workbook could not be read: the file is damaged or is not really an .xlsx workbook. Open it in a spreadsheet program and save it again as .xlsx.')
+  }
+  const out: RawWorkbook = {}
+  let total = 0
+  for (const name of SHEET_NAMES) {
+    const ws = workbook.worksheets.find(w => w.name.trim().toLowerCase() === name.toLowerCase())
+    if (!ws) continue
+    const sheet: RawSheet = { headers: [], rows: [] }
+    ws.eachRow({ includeEmpty: false }, (row, rowNumber) => {
+      const values = (row.values as unknown[]).slice(1).map(toRawCell)
+      if (rowNumber === 1) {
+        sheet.headers = values.map(v => (v === null ? '' : String(typeof v === 'object' && !(v instanceof Date) ? '' : v)).trim())
+        return
+      }
+      if (values.every(v => v === null || v === '')) return
+      total++
+      if (total > MAX_IMPORT_ROWS) throw new ImportFileError(`The file has more than ${MAX_IMPORT_ROWS.toLocaleString('en-GB')} rows; the limit is ${MAX_IMPORT_ROWS.toLocaleString('en-GB')}. Split it into several files.`)
+      sheet.rows.push({ rowNumber, cells: values })
+    })
+    out[name] = sheet
+  }
+  return out
+}
+
+function toRawCell(value: unknown): RawCell {
+  if (value === null || value === undefined) return null
+  if (typeof value === 'string' || typeof value === 'number' || typeof value === 'boolean' || value instanceof Date) return value
+  if (typeof value === 'object') {
+    const v = value as Record<string, unknown>
+    if ('formula' in v || 'sharedFormula' in v) return { formula: String(v.formula ?? v.sharedFormula) }
+    if ('error' in v) return { error: String(v.error) }
+    if (Array.isArray(v.richText)) return (v.richText as { text: string }[]).map(r => r.text).join('')
+    if ('text' in v) return String(v.text)
+  }
+  return String(value)
+}
+
+// ---------------------------------------------------------------- CSV
+
+/** RFC 4180 fields: commas, double quotes doubled inside quoted fields, CRLF or LF line ends. */
+export function parseCsv(text: string): string[][] {
+  const rows: string[][] = []
+  let row: string[] = []
+  let field = ''
+  let quoted = false
+  for (let i = 0; i < text.length; i++) {
+    const c = text[i]!
+    if (quoted) {
+      if (c === '"') {
+        if (text[i + 1] === '"') { field += '"'; i++ } else quoted = false
+      } else field += c
+    } else if (c === '"' && field === '') quoted = true
+    else if (c === ',') { row.push(field); field = '' }
+    else if (c === '\n' || c === '\r') {
+      if (c === '\r' && text[i + 1] === '\n') i++
+      row.push(field); rows.push(row); row = []; field = ''
+    } else field += c
+  }
+  if (field !== '' || row.length > 0) { row.push(field); rows.push(row) }
+  return rows
+}
+
+function readCsv(text: string): RawWorkbook {
+  const lines = parseCsv(text)
+  const headers = (lines[0] ?? []).map(h => h.trim())
+  const lowered = headers.map(h => h.toLowerCase())
+  const sheet: SheetName | null = lowered.includes('tank_external_id') ? 'Tanks'
+    : lowered.includes('structure_external_id') ? 'Structures'
+      : lowered.includes('site_external_id') ? 'Sites' : null
+  if (!sheet) {
+    throw new ImportFileError('The CSV header row does not match the Sites, Tanks or Structures layout of the template: it needs site_external_id (Sites), tank_external_id (Tanks) or structure_external_id (Structures).')
+  }
+  const rows: RawRow[] = []
+  for (let i = 1; i < lines.length; i++) {
+    const cells = lines[i]!
+    if (cells.every(c => c.trim() === '')) continue
+    if (rows.length >= MAX_IMPORT_ROWS) throw new ImportFileError(`The file has more than ${MAX_IMPORT_ROWS.toLocaleString('en-GB')} rows; the limit is ${MAX_IMPORT_ROWS.toLocaleString('en-GB')}. Split it into several files.`)
+    // A CSV cell starting with "=" is what a spreadsheet would run as a formula.
+    rows.push({ rowNumber: i + 1, cells: cells.map(c => (c.trim() === '' ? null : c.trimStart().startsWith('=') ? { formula: c.trim().slice(1) } : c)) })
+  }
+  return { [sheet]: { headers, rows } }
+}
+
+// ---------------------------------------------------------------- writing
+
+interface DataValidationsHolder { dataValidations: { add: (range: string, v: object) => void } }
+
+function columnLetter(index: number): string {
+  let n = index + 1
+  let s = ''
+  while (n > 0) { const r = (n - 1) % 26; s = String.fromCharCode(65 + r) + s; n = Math.floor((n - 1) / 26) }
+  return s
+}
+
+function addSheet(workbook: ExcelJS.Workbook, name: SheetName, rows: Record<string, unknown>[]) {
+  const columns = SHEET_COLUMNS[name]
+  const ws = workbook.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 1 }] })
+  ws.columns = columns.map(c => ({ header: c.header, key: c.header, width: c.width ?? 14 }))
+  const header = ws.getRow(1)
+  header.font = { bold: true }
+  columns.forEach((c, i) => {
+    header.getCell(i + 1).note = noteFor(c)
+  })
+  for (const r of rows) ws.addRow(columns.map(c => cellForWriting(r[c.header])))
+  // Drop-down lists for the closed sets, over every row an import may hold.
+  const lastRow = MAX_IMPORT_ROWS + 1
+  columns.forEach((c, i) => {
+    const list = c.kind === 'enum' ? c.values : c.kind === 'boolean' ? ['yes', 'no'] : null
+    if (!list) return
+    const col = columnLetter(i);
+    (ws as unknown as DataValidationsHolder).dataValidations.add(`${col}2:${col}${lastRow}`, {
+      type: 'list', allowBlank: !c.required, formulae: [`"${list.join(',')}"`],
+      showErrorMessage: true, errorTitle: c.header, error: `Choose one of: ${list.join(', ')}`,
+    })
+  })
+}
+
+function noteFor(c: ColumnSpec): string {
+  const parts = [c.note]
+  if (c.unit) parts.push(`Unit: ${c.unit}.`)
+  parts.push(c.required ? 'Required.' : 'Optional.')
+  return parts.join(' ')
+}
+
+/** Text from people is written so that no spreadsheet runs it as a formula (OWASP CSV-injection guidance). */
+function cellForWriting(value: unknown): string | number | null {
+  if (value === null || value === undefined) return null
+  if (typeof value === 'number') return Number.isFinite(value) ? value : null
+  if (typeof value === 'boolean') return value ? 'yes' : 'no'
+  return neutraliseFormula(String(value))
+}
+
+export type SheetRows = Record<SheetName, Record<string, unknown>[]>
+
+/** A workbook in the template layout; with no rows it is the template itself. */
+export async function writeInventoryWorkbook(rows: SheetRows = { Sites: [], Tanks: [], Structures: [] }): Promise<Buffer> {
+  const workbook = new ExcelJS.Workbook()
+  workbook.creator = 'Stormledger'
+  workbook.created = new Date(0)
+  const readMe = workbook.addWorksheet('Read me')
+  readMe.getColumn(1).width = 110
+  const lines = [
+    'Stormledger inventory workbook',
+    '',
+    'Fill the sheets Sites, Tanks and Structures: one record per row, under the header row. Keep the header names; hover over a header for its meaning and unit.',
+    'Units are in the column names: _m = metres, _deg = decimal degrees, _per_km2_yr = flashes per km² per year, _days_per_yr, _ka = kiloamperes, _c = °C. Money is in your organisation\'s currency.',
+    'Enter numbers as numbers (no units in the cell) and values, not formulas. yes/no columns and closed lists offer a drop-down.',
+    'Rows are matched by site_external_id (Sites), site_external_id + tank_external_id (Tanks) and site_external_id + structure_external_id (Structures): importing the same file again changes nothing. Rows not in the file are kept.',
+    `Limits: ${MAX_IMPORT_BYTES / 1024 / 1024} MB per file and ${MAX_IMPORT_ROWS.toLocaleString('en-GB')} rows in all sheets together.`,
+    'A site has either flash_density_per_km2_yr or thunderstorm_days_per_yr, never both.',
+  ]
+  lines.forEach((l, i) => { readMe.getCell(i + 1, 1).value = l })
+  readMe.getCell(1, 1).font = { bold: true, size: 14 }
+  for (const name of SHEET_NAMES) addSheet(workbook, name, rows[name])
+  const out = await workbook.xlsx.writeBuffer()
+  return Buffer.from(out as ArrayBuffer)
+}

@@ -1,0 +1,62 @@
+// The import service behind the import routes: read → validate → compare (preview, stored with the
+// original file) and commit (all or nothing, in one transaction).
+import { and, eq } from 'drizzle-orm'
+import type { H3Event } from 'h3'
+import { useDb } from '../db'
+import { inventoryImports, portfolios } from '../db/schema'
+import { applyImport, planImport, type ImportPlan } from '../inventory/import'
+import { validateFile } from '../inventory/rows'
+import { ImportFileError, readInventoryFile } from '../inventory/workbook'
+import type { Member } from './auth'
+
+const MAX_STORED_ERRORS = 1000
+
+async function planFor(organisationId: string, data: Buffer, fileName: string): Promise<ImportPlan> {
+  try {
+    const file = await readInventoryFile(data, fileName)
+    return await planImport(useDb(), organisationId, validateFile(file))
+  } catch (error) {
+    if (error instanceof ImportFileError) badRequest(error.message)
+    throw error
+  }
+}
+
+/** Reads an upload and stores the preview (counts, row errors, original bytes). */
+export async function previewUpload(event: H3Event, member: Member, upload: { fileName: string, contentType: string, data: Buffer }) {
+  const plan = await planFor(member.organisationId, upload.data, upload.fileName)
+  const [record] = await useDb().insert(inventoryImports).values({
+    organisationId: member.organisationId,
+    uploadedBy: member.user.id,
+    fileName: upload.fileName,
+    contentType: upload.contentType,
+    sizeBytes: upload.data.length,
+    fileData: upload.data,
+    status: 'previewed',
+    summary: plan.summary,
+    errors: plan.errors.slice(0, MAX_STORED_ERRORS),
+  }).returning({ id: inventoryImports.id, createdAt: inventoryImports.createdAt })
+  return { id: record!.id, fileName: upload.fileName, status: 'previewed' as const, summary: plan.summary, errors: plan.errors.slice(0, MAX_STORED_ERRORS), createdAt: record!.createdAt }
+}
+
+/** Commits a previewed import: re-reads the stored file against today's inventory and writes all of it, or nothing. */
+export async function commitImport(event: H3Event, member: Member, importId: string, portfolioId: string | null) {
+  const db = useDb()
+  if (portfolioId) {
+    const [own] = await db.select({ id: portfolios.id }).from(portfolios).where(and(eq(portfolios.id, portfolioId), eq(portfolios.organisationId, member.organisationId)))
+    if (!own) notFound('Portfolio')
+  }
+  return db.transaction(async (tx) => {
+    const [record] = await tx.select().from(inventoryImports)
+      .where(and(eq(inventoryImports.id, importId), eq(inventoryImports.organisationId, member.organisationId))).for('update')
+    if (!record) notFound('Import')
+    if (record.status === 'committed') conflict('This import was committed already.')
+    const plan = await planFor(member.organisationId, record.fileData, record.fileName)
+    if (plan.errors.length > 0) {
+      badRequest(`The file has ${plan.errors.length} error${plan.errors.length === 1 ? '' : 's'}; nothing was imported. Fix them and upload the file again.`, { errors: plan.errors.slice(0, MAX_STORED_ERRORS) })
+    }
+    await applyImport(tx as never, member.organisationId, plan, { portfolioId })
+    await tx.update(inventoryImports).set({ status: 'committed', committedAt: new Date(), summary: plan.summary }).where(eq(inventoryImports.id, record.id))
+    await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'import', entity: 'inventory_import', entityId: record.id, after: { fileName: record.fileName, summary: plan.summary, portfolioId } }, { tx, event })
+    return { id: record.id, status: 'committed' as const, summary: plan.summary }
+  })
+}

@@ -1,0 +1,108 @@
+// Who may see and change which inventory rows. An organisation reads and writes its own portfolios,
+// sites, tanks and structures; it reads (never writes) those of a portfolio shared with it.
+// Another organisation's rows answer 404; a write to a row shared read-only answers 403.
+import { and, eq, inArray, or, type SQL } from 'drizzle-orm'
+import type { H3Event } from 'h3'
+import { z } from 'zod'
+import { useDb } from '../db'
+import { organisations, portfolioShares, portfolioSites, portfolios, siteStructures, sites, tanks } from '../db/schema'
+import type { Member } from './auth'
+
+const READ_ONLY = 'This inventory is shared with your organisation read-only; it can only be changed by the organisation that owns it.'
+
+/** The route's `id` param as a uuid; anything else cannot name a row, so it is a 404. */
+export function routeUuid(event: H3Event, what: string, name = 'id'): string {
+  const parsed = z.uuid().safeParse(getRouterParam(event, name))
+  if (!parsed.success) notFound(what)
+  return parsed.data
+}
+
+/** Ids of the sites in portfolios shared with the organisation. */
+export function sharedSiteIds(organisationId: string) {
+  return useDb().select({ siteId: portfolioSites.siteId }).from(portfolioSites)
+    .innerJoin(portfolioShares, eq(portfolioShares.portfolioId, portfolioSites.portfolioId))
+    .where(eq(portfolioShares.organisationId, organisationId))
+}
+
+export function readableSites(organisationId: string): SQL {
+  return or(eq(sites.organisationId, organisationId), inArray(sites.id, sharedSiteIds(organisationId)))!
+}
+
+export async function findReadableSite(member: Member, id: string) {
+  const [site] = await useDb().select().from(sites).where(and(eq(sites.id, id), readableSites(member.organisationId)))
+  if (!site) notFound('Site')
+  return { site, readOnly: site.organisationId !== member.organisationId }
+}
+
+export async function findEditableSite(member: Member, id: string) {
+  const { site, readOnly } = await findReadableSite(member, id)
+  if (readOnly) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  return site
+}
+
+export async function findReadableTank(member: Member, id: string) {
+  const [row] = await useDb().select({ tank: tanks, site: sites }).from(tanks).innerJoin(sites, eq(sites.id, tanks.siteId))
+    .where(and(eq(tanks.id, id), readableSites(member.organisationId)))
+  if (!row) notFound('Tank')
+  return { ...row, readOnly: row.site.organisationId !== member.organisationId }
+}
+
+export async function findEditableTank(member: Member, id: string) {
+  const row = await findReadableTank(member, id)
+  if (row.readOnly) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  return row
+}
+
+export async function findEditableStructure(member: Member, id: string) {
+  const [row] = await useDb().select({ structure: siteStructures, site: sites }).from(siteStructures).innerJoin(sites, eq(sites.id, siteStructures.siteId))
+    .where(and(eq(siteStructures.id, id), readableSites(member.organisationId)))
+  if (!row) notFound('Structure')
+  if (row.site.organisationId !== member.organisationId) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  return row
+}
+
+export async function findReadablePortfolio(member: Member, id: string) {
+  const [row] = await useDb().select({ portfolio: portfolios, ownerName: organisations.name }).from(portfolios)
+    .innerJoin(organisations, eq(organisations.id, portfolios.organisationId))
+    .where(and(eq(portfolios.id, id), or(
+      eq(portfolios.organisationId, member.organisationId),
+      inArray(portfolios.id, useDb().select({ id: portfolioShares.portfolioId }).from(portfolioShares).where(eq(portfolioShares.organisationId, member.organisationId))),
+    )))
+  if (!row) notFound('Portfolio')
+  return { ...row, readOnly: row.portfolio.organisationId !== member.organisationId }
+}
+
+export async function findEditablePortfolio(member: Member, id: string) {
+  const row = await findReadablePortfolio(member, id)
+  if (row.readOnly) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  return row.portfolio
+}
+
+/** Postgres unique violations → 409 with a message about the field that clashed. */
+export function rethrowUnique(error: unknown, messages: Record<string, string>): never {
+  const e = error as { code?: string, constraint?: string, cause?: { code?: string, constraint?: string } }
+  const code = e.code ?? e.cause?.code
+  const constraint = e.constraint ?? e.cause?.constraint
+  if (code === '23505' && constraint && messages[constraint]) conflict(messages[constraint])
+  throw error
+}
+
+export const SITE_UNIQUE = { sites_org_external_id_unique: 'Another site of your organisation already has this reference.' }
+export const TANK_UNIQUE = {
+  tanks_site_external_id_unique: 'Another tank on this site already has this reference.',
+  tanks_site_tag_unique: 'Another tank on this site already has this tag.',
+}
+export const STRUCTURE_UNIQUE = { site_structures_site_external_id_unique: 'Another structure on this site already has this reference.' }
+export const PORTFOLIO_UNIQUE = { portfolios_org_name_unique: 'Your organisation already has a portfolio with this name.' }
+
+/** Reads the body and validates it with a shared zod schema; a 400 names the first problem and carries every field's message. */
+export async function readInventoryBody<T extends z.ZodType>(event: H3Event, schema: T): Promise<z.output<T>> {
+  const body = await readBody(event).catch(() => undefined)
+  const parsed = schema.safeParse(body ?? {})
+  if (!parsed.success) {
+    const fields: Record<string, string> = {}
+    for (const issue of parsed.error.issues) fields[issue.path.join('.')] ??= issue.message
+    badRequest(parsed.error.issues[0]?.message ?? 'The request is not valid.', { fields })
+  }
+  return parsed.data
+}
