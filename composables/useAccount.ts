@@ -30,10 +30,16 @@ export function errorMessage(error: unknown, fallback = 'Something went wrong. T
 
 /** Field messages from a 400 answer (zod errors from readValidatedBody, or our own fieldErrors). */
 export function fieldErrors(error: unknown): Record<string, string> {
-  const data = (error as { data?: { data?: unknown } })?.data?.data as { fieldErrors?: Record<string, string[]>, issues?: { path: (string | number)[], message: string }[] } | undefined
+  type Issue = { path: (string | number)[], message: string }
+  const data = (error as { data?: { data?: unknown } })?.data?.data as { fieldErrors?: Record<string, string[]>, issues?: Issue[], name?: string, message?: string } | undefined
   const out: Record<string, string> = {}
   if (data?.fieldErrors) for (const [k, v] of Object.entries(data.fieldErrors)) if (v?.[0]) out[k] = v[0]
-  if (Array.isArray(data?.issues)) for (const i of data.issues) { const k = String(i.path[0] ?? ''); out[k] ??= i.message }
+  // readValidatedBody answers a zod failure with the issues serialised in `message`.
+  let issues: Issue[] = Array.isArray(data?.issues) ? data.issues : []
+  if (data?.name === 'ZodError' && typeof data.message === 'string') {
+    try { issues = JSON.parse(data.message) as Issue[] } catch { issues = [] }
+  }
+  for (const i of issues) { const k = String(i.path?.[0] ?? ''); out[k] ??= i.message }
   return out
 }
 
@@ -47,4 +53,16 @@ export function validateForm<T>(schema: { safeParse: (v: unknown) => { success: 
     errors[key] ??= issue.message
   }
   return { errors }
+}
+
+/** Clears a field's message as soon as the person edits that field. */
+export function clearErrorsOnEdit(form: Record<string, unknown>, errors: Ref<Record<string, string>>) {
+  watch(() => ({ ...form }), (now, before) => {
+    for (const key of Object.keys(now)) {
+      if (now[key] !== before[key] && errors.value[key]) {
+        const { [key]: _gone, ...rest } = errors.value
+        errors.value = rest
+      }
+    }
+  })
 }
