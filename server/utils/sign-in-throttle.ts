@@ -37,7 +37,7 @@ export async function assertSignInAllowed(event: H3Event, email: string, address
   if (blocking.length === 0) return
   const freeAt = Math.max(...blocking.map(c => c.oldest!.getTime() + SIGN_IN_WINDOW_MS))
   const seconds = Math.max(1, Math.ceil((freeAt - now) / 1000))
-  setResponseHeader(event, 'Retry-After', String(seconds))
+  setResponseHeader(event, 'Retry-After', seconds)
   const minutes = Math.ceil(seconds / 60)
   throw createError({
     statusCode: 429,
