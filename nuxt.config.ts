@@ -20,6 +20,8 @@ export default defineNuxtConfig({
     publicUrl: 'http://localhost:3000',
     smtp: { host: '127.0.0.1', port: 2525, secure: false, user: '', password: '', from: 'Stormledger <no-reply@stormledger.local>', captured: true },
     public: { appVersion: '' },
+    // nuxt-auth-utils: sealed cookie sessions end after 7 days (the seal carries its own expiry too).
+    session: { maxAge: 60 * 60 * 24 * 7 },
   },
   typescript: { strict: true },
   nitro: {

@@ -1,6 +1,10 @@
-// The demo scenario's sign-ins, printed by `npm start` (filled in by the accounts seeder).
+// The demo scenario's sign-ins, printed by `npm start` — only when the demo was seeded into this database.
+import { isDemoSeeded } from '../server/db/seed/index'
+import { demoSignInList } from '../server/db/seed/accounts'
+
 export interface DemoSignIn { organisation: string, role: string, email: string, password: string }
 
 export async function demoSignIns(): Promise<DemoSignIn[]> {
-  return []
+  if (!(await isDemoSeeded().catch(() => false))) return []
+  return demoSignInList()
 }

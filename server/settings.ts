@@ -23,6 +23,11 @@ export const settings = {
       from: process.env.MAIL_FROM ?? 'Stormledger <no-reply@stormledger.invalid>',
     }
   },
+  /**
+   * Take the client address from X-Forwarded-For (set only behind a reverse proxy that overwrites
+   * it); otherwise the address of the connection. Sign-in throttling counts failures per address.
+   */
+  get trustProxy() { return flag('STORMLEDGER_TRUST_PROXY', false) },
   /** Worker threads per worker process; defaults to every core. */
   get workerThreads() { return Number(process.env.STORMLEDGER_WORKER_THREADS ?? 0) || undefined },
 }

@@ -1,7 +1,74 @@
+// Forms and request bodies of accounts: sign-in, passwords, invitations, members, audit filters.
+// Used by the pages (messages shown by the field) and by the routes (readValidatedBody).
 import { z } from 'zod'
 
+export const PASSWORD_MIN_LENGTH = 12
+/** scrypt work grows with the input; an upper bound keeps one request from tying up a core. */
+export const PASSWORD_MAX_LENGTH = 200
+
+const roleEnum = z.enum(['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer'], { message: 'Choose a role.' })
+const email = z.string().trim().toLowerCase().email('Enter an e-mail address.').max(254, 'That e-mail address is too long.')
+
 export const signInSchema = z.object({
-  email: z.string().trim().toLowerCase().email('Enter an e-mail address.'),
-  password: z.string().min(1, 'Enter your password.'),
+  email,
+  password: z.string().min(1, 'Enter your password.').max(PASSWORD_MAX_LENGTH, 'That password is too long.'),
 })
 export type SignInInput = z.infer<typeof signInSchema>
+
+export const newPasswordSchema = z.string()
+  .min(PASSWORD_MIN_LENGTH, `Use at least ${PASSWORD_MIN_LENGTH} characters.`)
+  .max(PASSWORD_MAX_LENGTH, `Use at most ${PASSWORD_MAX_LENGTH} characters.`)
+
+/**
+ * The rule a schema cannot see on its own: the password must not be the person's e-mail address
+ * (nor the part before the @). Returns the message to show, or null when the password is fine.
+ */
+export function passwordProblem(password: string, emailAddress: string): string | null {
+  const parsed = newPasswordSchema.safeParse(password)
+  if (!parsed.success) return parsed.error.issues[0]!.message
+  const p = password.trim().toLowerCase()
+  const e = emailAddress.trim().toLowerCase()
+  if (p === e || (e.includes('@') && p === e.slice(0, e.indexOf('@')))) return 'The password must not be your e-mail address.'
+  return null
+}
+
+export const changePasswordSchema = z.object({
+  currentPassword: z.string().min(1, 'Enter your current password.').max(PASSWORD_MAX_LENGTH),
+  newPassword: newPasswordSchema,
+})
+
+export const profileSchema = z.object({
+  name: z.string().trim().min(1, 'Enter your name.').max(120, 'Use at most 120 characters.'),
+})
+
+export const switchOrganisationSchema = z.object({
+  organisationId: z.string().uuid('Choose an organisation.'),
+})
+
+export const resetRequestSchema = z.object({ email })
+
+export const resetConfirmSchema = z.object({ password: newPasswordSchema })
+
+export const tokenParamsSchema = z.object({ token: z.string().min(20).max(100).regex(/^[\w-]+$/) })
+
+export const idParamsSchema = z.object({ id: z.string().uuid() })
+
+export const inviteSchema = z.object({ email, role: roleEnum })
+export type InviteInput = z.infer<typeof inviteSchema>
+
+/** Accepting an invitation: a new account gives a name and a password; an existing one gives nothing. */
+export const acceptInvitationSchema = z.object({
+  name: z.string().trim().min(1, 'Enter your name.').max(120, 'Use at most 120 characters.').optional(),
+  password: newPasswordSchema.optional(),
+})
+
+export const memberUpdateSchema = z.object({ role: roleEnum })
+
+export const auditQuerySchema = z.object({
+  person: z.string().uuid().optional(),
+  entity: z.string().trim().min(1).max(60).optional(),
+  from: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.').optional(),
+  to: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.').optional(),
+  page: z.coerce.number().int().min(1).max(10_000).default(1),
+})
+export type AuditQuery = z.infer<typeof auditQuerySchema>

@@ -18,14 +18,14 @@ export async function createOrganisation(pool: pg.Pool, name: string, kind = 'op
   return rows[0].id
 }
 
-export async function createMember(pool: pg.Pool, organisationId: string, role: RoleName, email?: string): Promise<{ userId: string, email: string }> {
+export async function createMember(pool: pg.Pool, organisationId: string, role: RoleName, email?: string): Promise<{ userId: string, email: string, membershipId: string }> {
   const address = (email ?? `${role}.${Math.random().toString(36).slice(2, 8)}@example.test`).toLowerCase()
   let { rows } = await pool.query(`SELECT id FROM users WHERE email = $1`, [address])
   if (rows.length === 0) {
     ({ rows } = await pool.query(`INSERT INTO users (email, name, password_hash) VALUES ($1, $2, $3) RETURNING id`, [address, `Test ${role}`, await testPasswordHash()]))
   }
-  await pool.query(`INSERT INTO memberships (organisation_id, user_id, role) VALUES ($1, $2, $3)`, [organisationId, rows[0].id, role])
-  return { userId: rows[0].id, email: address }
+  const membership = await pool.query(`INSERT INTO memberships (organisation_id, user_id, role) VALUES ($1, $2, $3) RETURNING id`, [organisationId, rows[0].id, role])
+  return { userId: rows[0].id, email: address, membershipId: membership.rows[0].id }
 }
 
 /** A fetch client that keeps the session cookie. */

@@ -1,4 +1,4 @@
-import { boolean, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { type AnyPgColumn, boolean, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { timestamps } from './columns'
 
 export const organisationKind = pgEnum('organisation_kind', ['insurer', 'broker', 'operator', 'consultancy'])
@@ -22,8 +22,10 @@ export const users = pgTable('users', {
   sessionVersion: integer('session_version').notNull().default(1),
   disabled: boolean('disabled').notNull().default(false),
   lastSignInAt: timestamp('last_sign_in_at', { withTimezone: true }),
+  /** The organisation the person worked in last; sign-in starts there. */
+  lastOrganisationId: uuid('last_organisation_id').references((): AnyPgColumn => organisations.id, { onDelete: 'set null' }),
   ...timestamps,
-}, t => [uniqueIndex('users_email_unique').on(t.email)])
+}, t => [uniqueIndex('users_email_unique').on(t.email), index('users_last_organisation_idx').on(t.lastOrganisationId)])
 
 export const memberships = pgTable('memberships', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -38,3 +40,55 @@ export const memberships = pgTable('memberships', {
 
 export type Role = (typeof memberRole.enumValues)[number]
 export type OrganisationKind = (typeof organisationKind.enumValues)[number]
+
+/**
+ * An invitation to join an organisation with a role. Only the SHA-256 of the e-mailed token is
+ * stored, so a copy of the database cannot be used to accept invitations.
+ */
+export const invitations = pgTable('invitations', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  organisationId: uuid('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+  email: text('email').notNull(),
+  role: memberRole('role').notNull(),
+  tokenHash: text('token_hash').notNull(),
+  invitedById: uuid('invited_by_id').references(() => users.id, { onDelete: 'set null' }),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  acceptedAt: timestamp('accepted_at', { withTimezone: true }),
+  acceptedById: uuid('accepted_by_id').references(() => users.id, { onDelete: 'set null' }),
+  revokedAt: timestamp('revoked_at', { withTimezone: true }),
+  ...timestamps,
+}, t => [
+  uniqueIndex('invitations_token_hash_unique').on(t.tokenHash),
+  index('invitations_org_idx').on(t.organisationId, t.createdAt),
+  index('invitations_email_idx').on(t.email),
+  index('invitations_invited_by_idx').on(t.invitedById),
+  index('invitations_accepted_by_idx').on(t.acceptedById),
+])
+
+/** A single-use password-reset token (its SHA-256), valid for one hour. */
+export const passwordResetTokens = pgTable('password_reset_tokens', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  tokenHash: text('token_hash').notNull(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+}, t => [
+  uniqueIndex('password_reset_tokens_hash_unique').on(t.tokenHash),
+  index('password_reset_tokens_user_idx').on(t.userId, t.createdAt),
+])
+
+/**
+ * Every sign-in attempt, for throttling: failures are counted per e-mail address and per client
+ * address over a sliding window. Kept in PostgreSQL so every server process sees the same counts.
+ */
+export const signInAttempts = pgTable('sign_in_attempts', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  email: text('email').notNull(),
+  ipAddress: text('ip_address').notNull(),
+  succeeded: boolean('succeeded').notNull(),
+  at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
+}, t => [
+  index('sign_in_attempts_email_idx').on(t.email, t.at),
+  index('sign_in_attempts_ip_idx').on(t.ipAddress, t.at),
+])

@@ -1,5 +1,7 @@
 // Registers every domain's demo seeder, in dependency order. Import this module for its effect.
+import { accountsSeeder } from './accounts'
 import { seeders } from './index'
 import { seedInventory } from './inventory'
 
+seeders.push(accountsSeeder)
 seeders.push({ name: 'inventory', run: seedInventory })

@@ -19,6 +19,12 @@ export interface RouteRule {
   allowed: RoleName[] | 'public'
   /** Route param → fixture key, e.g. { id: 'siteId' }, for the cross-organisation probes. */
   params?: Record<string, string>
+  /**
+   * A body valid enough to reach the organisation-scoped lookup, sent with every call of the rule
+   * (default {}). Needed where a route validates its body before looking the row up (e.g. a PATCH
+   * with required fields): otherwise the cross-organisation probe gets 400 instead of 404.
+   */
+  body?: Record<string, unknown>
 }
 
 export interface MatrixModule {

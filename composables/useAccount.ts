@@ -1,0 +1,68 @@
+// The signed-in person, their organisation and role, as the frame shows them; and the account actions.
+import { roleLabels } from '~~/shared/roles'
+
+export function useAccount() {
+  const { session, user, loggedIn, fetch, clear } = useUserSession()
+  const role = computed(() => session.value?.role ?? null)
+  const roleLabel = computed(() => (role.value ? roleLabels[role.value] : ''))
+
+  async function signOut() {
+    await $fetch('/api/auth/sign-out', { method: 'POST' }).catch(() => {})
+    await clear()
+    await navigateTo('/sign-in')
+  }
+
+  async function switchOrganisation(organisationId: string) {
+    await $fetch('/api/auth/switch-organisation', { method: 'POST', body: { organisationId } })
+    await fetch()
+    await navigateTo('/overview')
+    await refreshNuxtData()
+  }
+
+  return { session, user, loggedIn, role, roleLabel, refresh: fetch, signOut, switchOrganisation }
+}
+
+/** The message of a failed $fetch, for showing beside a form. */
+export function errorMessage(error: unknown, fallback = 'Something went wrong. Try again.'): string {
+  const e = error as { data?: { statusMessage?: string, message?: string }, statusMessage?: string }
+  return e?.data?.statusMessage ?? e?.statusMessage ?? e?.data?.message ?? fallback
+}
+
+/** Field messages from a 400 answer (zod errors from readValidatedBody, or our own fieldErrors). */
+export function fieldErrors(error: unknown): Record<string, string> {
+  type Issue = { path: (string | number)[], message: string }
+  const data = (error as { data?: { data?: unknown } })?.data?.data as { fieldErrors?: Record<string, string[]>, issues?: Issue[], name?: string, message?: string } | undefined
+  const out: Record<string, string> = {}
+  if (data?.fieldErrors) for (const [k, v] of Object.entries(data.fieldErrors)) if (v?.[0]) out[k] = v[0]
+  // readValidatedBody answers a zod failure with the issues serialised in `message`.
+  let issues: Issue[] = Array.isArray(data?.issues) ? data.issues : []
+  if (data?.name === 'ZodError' && typeof data.message === 'string') {
+    try { issues = JSON.parse(data.message) as Issue[] } catch { issues = [] }
+  }
+  for (const i of issues) { const k = String(i.path?.[0] ?? ''); out[k] ??= i.message }
+  return out
+}
+
+/** Validates form values with the zod schema the route uses; returns the first message per field. */
+export function validateForm<T>(schema: { safeParse: (v: unknown) => { success: true, data: T } | { success: false, error: { issues: { path: PropertyKey[], message: string }[] } } }, values: unknown): { data?: T, errors: Record<string, string> } {
+  const result = schema.safeParse(values)
+  if (result.success) return { data: result.data, errors: {} }
+  const errors: Record<string, string> = {}
+  for (const issue of result.error.issues) {
+    const key = String(issue.path[0] ?? '')
+    errors[key] ??= issue.message
+  }
+  return { errors }
+}
+
+/** Clears a field's message as soon as the person edits that field. */
+export function clearErrorsOnEdit(form: Record<string, unknown>, errors: Ref<Record<string, string>>) {
+  watch(() => ({ ...form }), (now, before) => {
+    for (const key of Object.keys(now)) {
+      if (now[key] !== before[key] && errors.value[key]) {
+        const { [key]: _gone, ...rest } = errors.value
+        errors.value = rest
+      }
+    }
+  })
+}

@@ -1,0 +1,9 @@
+// GET /api/audit?person=&entity=&from=&to=&page= — the organisation's audit log, newest first,
+// filtered by person, entity and date (UTC days, inclusive). Admins.
+import { auditQuerySchema } from '~~/shared/schemas/auth'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.admins })
+  const query = await getValidatedQuery(event, auditQuerySchema.parse)
+  return await readAuditLog(member.organisationId, query)
+})

@@ -1,0 +1,9 @@
+// GET /api/auth/reset-password/:token — whether a reset link can still be used. Public (the token is
+// the credential): 404 unknown, 410 used or expired.
+import { tokenParamsSchema } from '~~/shared/schemas/auth'
+
+export default defineEventHandler(async (event) => {
+  const { token } = await getValidatedRouterParams(event, tokenParamsSchema.parse)
+  const row = await usableResetToken(token)
+  return { ok: true, expiresAt: row.expiresAt.toISOString() }
+})

@@ -1,0 +1,7 @@
+// POST /api/auth/sign-out — ends this session. Any member.
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.everyone })
+  await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'sign_out', entity: 'account', entityId: member.user.id }, { event })
+  await clearUserSession(event)
+  return { ok: true }
+})

@@ -1,0 +1,8 @@
+// GET /api/invitations/accept/:token — what an invitation link offers (organisation, role, whether
+// the address has an account). Public: the token is the credential. 404 unknown, 410 no longer usable.
+import { tokenParamsSchema } from '~~/shared/schemas/auth'
+
+export default defineEventHandler(async (event) => {
+  const { token } = await getValidatedRouterParams(event, tokenParamsSchema.parse)
+  return await describeInvitation(token)
+})

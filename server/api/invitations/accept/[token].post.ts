@@ -1,0 +1,9 @@
+// POST /api/invitations/accept/:token — accept an invitation: a new account sends its name and
+// password; an existing account is simply added. Public: the token is the credential. Single use.
+import { acceptInvitationSchema, tokenParamsSchema } from '~~/shared/schemas/auth'
+
+export default defineEventHandler(async (event) => {
+  const { token } = await getValidatedRouterParams(event, tokenParamsSchema.parse)
+  const body = await readValidatedBody(event, acceptInvitationSchema.parse)
+  return await acceptInvitation(event, token, body)
+})

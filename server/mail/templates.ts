@@ -1,0 +1,47 @@
+// Every message Stormledger sends, in one place: plain text, short, with the product's name and
+// what to do next. Each template returns the subject and the body; queueMail() sends it.
+import { roleLabels } from '../../shared/roles'
+import type { RoleName } from '../../shared/navigation'
+
+export interface MailContent { subject: string, text: string }
+
+const SIGNATURE = '\n\n— Stormledger\nLightning-ignition risk for non-conducting storage tanks'
+
+const article = (word: string) => (/^[aeiou]/i.test(word) ? 'an' : 'a')
+
+export function invitationMail(o: { organisationName: string, role: RoleName, invitedBy: string, link: string, expiresAt: Date }): MailContent {
+  const role = roleLabels[o.role].toLowerCase()
+  return {
+    subject: `You are invited to ${o.organisationName} on Stormledger`,
+    text: `${o.invitedBy} invites you to join ${o.organisationName} on Stormledger as ${article(role)} ${role}.
+
+Open this link to accept and set your password:
+${o.link}
+
+The link works once and expires on ${o.expiresAt.toUTCString()}.
+If you did not expect this invitation, ignore this message; nothing happens unless the link is opened.${SIGNATURE}`,
+  }
+}
+
+export function passwordResetMail(o: { link: string }): MailContent {
+  return {
+    subject: 'Reset your Stormledger password',
+    text: `Someone asked to reset the password of the Stormledger account for this e-mail address.
+
+To choose a new password, open this link within one hour:
+${o.link}
+
+The link works once. Setting a new password signs you out everywhere else.
+If you did not ask for this, ignore this message; your password stays as it is.${SIGNATURE}`,
+  }
+}
+
+export function passwordChangedMail(o: { signInLink: string, resetLink: string }): MailContent {
+  return {
+    subject: 'Your Stormledger password was changed',
+    text: `The password of your Stormledger account was just changed, and every other session was signed out.
+
+If that was you, there is nothing to do: ${o.signInLink}
+If it was not, reset your password now: ${o.resetLink}${SIGNATURE}`,
+  }
+}

@@ -1,0 +1,14 @@
+// Mail from request handlers goes through the queue ('mail.send'): a slow or unreachable SMTP server
+// never fails or delays the request, and the worker retries delivery.
+import { enqueue } from '../jobs/queue'
+import type { MailContent } from '../mail/templates'
+import { settings } from '../settings'
+
+export async function queueMail(to: string, content: MailContent): Promise<void> {
+  await enqueue('mail.send', { to, subject: content.subject, text: content.text })
+}
+
+/** An absolute link into the app, for e-mails (STORMLEDGER_PUBLIC_URL). */
+export function appLink(path: string): string {
+  return `${settings.publicUrl}${path}`
+}

@@ -1,0 +1,55 @@
+// Password reset: single-use tokens valid for one hour. Requests for unknown addresses do the same
+// visible thing as for known ones (nothing is said either way); a confirmed reset ends every session.
+import { and, count, eq, gt, isNull, sql } from 'drizzle-orm'
+import type { H3Event } from 'h3'
+import { useDb } from '../db'
+import { passwordResetTokens, users } from '../db/schema'
+import { passwordChangedMail, passwordResetMail } from '../mail/templates'
+
+/** At most this many reset messages per account per hour, so the form cannot be used to flood an inbox. */
+const MAX_RESET_MAILS_PER_HOUR = 5
+
+export async function requestPasswordReset(event: H3Event, email: string): Promise<void> {
+  const db = useDb()
+  const [user] = await db.select().from(users).where(eq(users.email, email))
+  if (!user || user.disabled) return
+  const [recent] = await db.select({ n: count() }).from(passwordResetTokens)
+    .where(and(eq(passwordResetTokens.userId, user.id), gt(passwordResetTokens.createdAt, new Date(Date.now() - 60 * 60 * 1000))))
+  if ((recent?.n ?? 0) >= MAX_RESET_MAILS_PER_HOUR) return
+  const { token, tokenHash } = newToken()
+  await db.transaction(async (tx) => {
+    await tx.insert(passwordResetTokens).values({ userId: user.id, tokenHash, expiresAt: new Date(Date.now() + RESET_LIFETIME_MS) })
+    await recordAudit({ organisationId: null, userId: user.id, action: 'password_reset_request', entity: 'account', entityId: user.id }, { tx, event })
+  })
+  await queueMail(user.email, passwordResetMail({ link: appLink(`/reset-password/${token}`) }))
+}
+
+type ResetToken = typeof passwordResetTokens.$inferSelect
+
+/** The token's row, or throws 404 (unknown) / 410 (used or expired) with a message saying what to do. */
+export async function usableResetToken(token: string, executor: Pick<ReturnType<typeof useDb>, 'select'> = useDb(), lock = false): Promise<ResetToken> {
+  const query = executor.select().from(passwordResetTokens).where(eq(passwordResetTokens.tokenHash, hashToken(token)))
+  const [row] = lock ? await query.for('update') : await query
+  if (!row) throw createError({ statusCode: 404, statusMessage: 'This reset link is not valid. Ask for a new one.' })
+  if (row.usedAt || row.expiresAt.getTime() <= Date.now()) {
+    throw createError({ statusCode: 410, statusMessage: 'This reset link has expired or was already used. Ask for a new one.' })
+  }
+  return row
+}
+
+/** Sets the new password, uses up the token (and every other open token of the person), ends every session. */
+export async function confirmPasswordReset(event: H3Event, token: string, password: string): Promise<void> {
+  const db = useDb()
+  const email = await db.transaction(async (tx) => {
+    const row = await usableResetToken(token, tx, true)
+    const [user] = await tx.select().from(users).where(eq(users.id, row.userId))
+    if (!user || user.disabled) throw createError({ statusCode: 410, statusMessage: 'This reset link has expired or was already used. Ask for a new one.' })
+    assertPasswordAllowed(password, user.email)
+    const passwordHash = await hashPassword(password)
+    await tx.update(users).set({ passwordHash, sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, user.id))
+    await tx.update(passwordResetTokens).set({ usedAt: new Date() }).where(and(eq(passwordResetTokens.userId, user.id), isNull(passwordResetTokens.usedAt)))
+    await recordAudit({ organisationId: null, userId: user.id, action: 'password_reset', entity: 'account', entityId: user.id }, { tx, event })
+    return user.email
+  })
+  await queueMail(email, passwordChangedMail({ signInLink: appLink('/sign-in'), resetLink: appLink('/reset-password') }))
+}
