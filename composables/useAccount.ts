@@ -1,4 +1,5 @@
 // The signed-in person, their organisation and role, as the frame shows them; and the account actions.
+import { passwordProblem } from '~~/shared/schemas/auth'
 import { roleLabels } from '~~/shared/roles'
 
 export function useAccount() {
@@ -65,4 +66,13 @@ export function clearErrorsOnEdit(form: Record<string, unknown>, errors: Ref<Rec
       }
     }
   })
+}
+
+/** Messages for a new password typed twice: the rules (shared with the server) and the repeat. */
+export function newPasswordErrors(password: string, repeat: string, email: string, field = 'password'): Record<string, string> {
+  const errors: Record<string, string> = {}
+  const problem = passwordProblem(password, email)
+  if (problem) errors[field] = problem
+  if (repeat !== password) errors.repeat = 'The two passwords differ.'
+  return errors
 }
