@@ -8,6 +8,7 @@ export default defineConfig({
       {
         test: {
           name: 'unit',
+          sequence: { groupOrder: 0 },
           include: ['tests/unit/**/*.test.ts', 'tests/reference/**/*.test.ts'],
           environment: 'node',
           testTimeout: 60_000,
@@ -16,6 +17,8 @@ export default defineConfig({
       {
         test: {
           name: 'server',
+          // Groups run one after another: the server suite restarts PostgreSQL, which the browser suite shares.
+          sequence: { groupOrder: 1 },
           include: ['tests/server/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['tests/support/global-server.ts'],
@@ -28,6 +31,7 @@ export default defineConfig({
       {
         test: {
           name: 'e2e',
+          sequence: { groupOrder: 2 },
           include: ['tests/e2e/**/*.test.ts'],
           environment: 'node',
           globalSetup: ['tests/support/global-e2e.ts'],

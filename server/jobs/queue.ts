@@ -6,6 +6,8 @@ import type { JobName, JobPayloads } from './types'
 /** Queue options per job; every queue the product uses is listed here. */
 export const queueOptions: Record<JobName, Omit<PgBoss.Queue, 'name'>> = {
   'mail.send': { retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 60 },
+  // A chunk whose worker died is handed to another worker once it expires.
+  'run.chunk': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },
 }
 
 let boss: PgBoss | undefined
@@ -19,6 +21,8 @@ export function useBoss(options: { supervise?: boolean } = {}): Promise<PgBoss> 
       schema: 'pgboss',
       max: 4,
       supervise: options.supervise ?? false,
+      // Maintenance hands expired jobs (a worker that died) to other workers.
+      maintenanceIntervalSeconds: Number(process.env.STORMLEDGER_QUEUE_MAINTENANCE_SECONDS ?? 30),
       schedule: false,
       application_name: 'stormledger',
     })

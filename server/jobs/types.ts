@@ -1,6 +1,7 @@
 // Every background job's name and payload, in one map.
 export interface JobPayloads {
   'mail.send': { to: string, subject: string, text: string }
+  'run.chunk': { runId: string, chunkIndex: number }
 }
 
 export type JobName = keyof JobPayloads

@@ -1,6 +1,7 @@
 // The background worker: `npm run worker` (npm start runs one beside the server).
 // Any number may run, here or on other machines pointed at the same DATABASE_URL.
 import { closeDb } from '../db/index'
+import { closeThreadPool } from '../runs/thread-pool'
 import { stopBoss, useBoss } from './queue'
 import { jobRegistry } from './registry'
 import type { JobName } from './types'
@@ -9,7 +10,9 @@ async function main() {
   const boss = await useBoss({ supervise: true })
   for (const name of Object.keys(jobRegistry) as JobName[]) {
     const entry = jobRegistry[name]
-    await boss.work(name, entry.work, entry.handler as Parameters<typeof boss.work>[2])
+    for (let i = 0; i < entry.concurrency(); i++) {
+      await boss.work(name, entry.work, entry.handler as Parameters<typeof boss.work>[2])
+    }
   }
   console.log(`[worker] ready (pid ${process.pid}); queues: ${Object.keys(jobRegistry).join(', ')}`)
 }
@@ -20,6 +23,7 @@ async function shutdown(signal: string) {
   stopping = true
   console.log(`[worker] ${signal}: finishing current jobs, then stopping`)
   await stopBoss().catch(() => {})
+  await closeThreadPool().catch(() => {})
   await closeDb().catch(() => {})
   process.exit(0)
 }

@@ -1,5 +1,5 @@
 // The audit trail: who did what to which record, with the state before and after.
-import type { H3Event } from 'h3'
+import { getRequestIP, type H3Event } from 'h3'
 import { useDb, type Database } from '../db'
 import { auditEvents } from '../db/schema'
 

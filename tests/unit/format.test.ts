@@ -36,3 +36,14 @@ describe('formatting for reading', () => {
     expect(formatMoney(1250000, 'EUR')).toBe('EUR 1,250,000')
   })
 })
+
+describe('durations', async () => {
+  const { formatDuration } = await import('../../shared/format-time')
+  it('reads as minutes and seconds', () => {
+    // Arithmetic (common practice): 75 s = 1 min 15 s; 4000 s = 1 h 6 min 40 s → rounded to minutes.
+    expect(formatDuration(3)).toBe('3 s')
+    expect(formatDuration(75)).toBe('1 min 15 s')
+    expect(formatDuration(4000)).toBe('1 h 6 min')
+    expect(formatDuration(null)).toBe('—')
+  })
+})

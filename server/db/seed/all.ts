@@ -1,7 +1,9 @@
 // Registers every domain's demo seeder, in dependency order. Import this module for its effect.
 import { accountsSeeder } from './accounts'
+import { assumptionsSeeder } from './assumptions'
 import { seeders } from './index'
 import { seedInventory } from './inventory'
 
 seeders.push(accountsSeeder)
 seeders.push({ name: 'inventory', run: seedInventory })
+seeders.push(assumptionsSeeder)

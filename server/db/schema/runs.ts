@@ -1,0 +1,181 @@
+import { bigint, boolean, customType, doublePrecision, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { organisations, users } from './accounts'
+import { timestamps } from './columns'
+
+const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
+
+/** Money figures derived from simulations: numeric with cents, read as numbers. */
+const money = (name: string) => numeric(name, { precision: 20, scale: 2, mode: 'number' })
+
+export const runMode = pgEnum('run_mode', ['frequency', 'year'])
+export const runState = pgEnum('run_state', ['queued', 'running', 'succeeded', 'failed', 'cancelled'])
+export const chunkState = pgEnum('run_chunk_state', ['pending', 'done'])
+
+/** A named family of assumption versions. */
+export const assumptionSets = pgTable('assumption_sets', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  organisationId: uuid('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  description: text('description').notNull().default(''),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [uniqueIndex('assumption_sets_org_name_unique').on(t.organisationId, t.name)])
+
+/** One version of an assumption set: the full, validated engine parameters. Frozen once a run used it. */
+export const assumptionSetVersions = pgTable('assumption_set_versions', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  assumptionSetId: uuid('assumption_set_id').notNull().references(() => assumptionSets.id, { onDelete: 'cascade' }),
+  version: integer('version').notNull(),
+  /** The engine's AssumptionSet (shared/engine/assumptions.ts), complete and validated. */
+  parameters: jsonb('parameters').notNull(),
+  note: text('note').notNull().default(''),
+  /** Where changed values came from (e.g. a calibration), shown beside them. */
+  provenance: jsonb('provenance').notNull().default({}),
+  usedByRun: boolean('used_by_run').notNull().default(false),
+  createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  ...timestamps,
+}, t => [uniqueIndex('assumption_versions_set_version_unique').on(t.assumptionSetId, t.version)])
+
+export const runs = pgTable('runs', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  organisationId: uuid('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+  /** No foreign key: a run stays readable (from its snapshot) after its portfolio is deleted. */
+  portfolioId: uuid('portfolio_id').notNull(),
+  portfolioName: text('portfolio_name').notNull(),
+  assumptionVersionId: uuid('assumption_version_id').notNull().references(() => assumptionSetVersions.id, { onDelete: 'restrict' }),
+  mode: runMode('mode').notNull(),
+  seed: bigint('seed', { mode: 'number' }).notNull(),
+  /** Frequency mode: stop a tank at this relative standard error. */
+  targetRse: doublePrecision('target_rse').notNull(),
+  maxSamplesPerTank: integer('max_samples_per_tank').notNull(),
+  /** Year mode: simulated years per site. */
+  years: integer('years').notNull(),
+  chunkSize: integer('chunk_size').notNull(),
+  state: runState('state').notNull().default('queued'),
+  sitesTotal: integer('sites_total').notNull(),
+  sitesDone: integer('sites_done').notNull().default(0),
+  tanksTotal: integer('tanks_total').notNull(),
+  chunksTotal: integer('chunks_total').notNull(),
+  chunksDone: integer('chunks_done').notNull().default(0),
+  /** sha-256 of engine version, assumptions, mode, seed, targets and the site snapshot. */
+  inputHash: text('input_hash').notNull(),
+  engineVersion: text('engine_version').notNull(),
+  errorMessage: text('error_message'),
+  requestedBy: uuid('requested_by').references(() => users.id, { onDelete: 'set null' }),
+  /** Run this one repeats (retry), if any. */
+  retryOf: uuid('retry_of'),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  startedAt: timestamp('started_at', { withTimezone: true }),
+  finishedAt: timestamp('finished_at', { withTimezone: true }),
+}, t => [
+  index('runs_org_created_idx').on(t.organisationId, t.createdAt),
+  index('runs_portfolio_idx').on(t.portfolioId),
+  index('runs_state_idx').on(t.state),
+  index('runs_assumption_version_idx').on(t.assumptionVersionId),
+])
+
+/** The inventory exactly as the run saw it: one row per site (engine SiteInput plus display facts). */
+export const runSiteSnapshots = pgTable('run_site_snapshots', {
+  runId: uuid('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
+  siteId: uuid('site_id').notNull(),
+  position: integer('position').notNull(),
+  site: jsonb('site').notNull(),
+  facts: jsonb('facts').notNull(),
+}, t => [primaryKey({ columns: [t.runId, t.siteId] }), index('run_site_snapshots_position_idx').on(t.runId, t.position)])
+
+export const runChunks = pgTable('run_chunks', {
+  runId: uuid('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
+  chunkIndex: integer('chunk_index').notNull(),
+  siteIds: jsonb('site_ids').$type<string[]>().notNull(),
+  state: chunkState('state').notNull().default('pending'),
+  attempts: integer('attempts').notNull().default(0),
+  worker: text('worker'),
+  completedAt: timestamp('completed_at', { withTimezone: true }),
+}, t => [primaryKey({ columns: [t.runId, t.chunkIndex] })])
+
+export const runTankResults = pgTable('run_tank_results', {
+  runId: uuid('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
+  siteId: uuid('site_id').notNull(),
+  tankId: uuid('tank_id').notNull(),
+  tag: text('tag').notNull(),
+  /** Annual frequencies (/yr) with 95 % intervals. */
+  directRate: doublePrecision('direct_rate').notNull(),
+  directLo: doublePrecision('direct_lo').notNull(),
+  directHi: doublePrecision('direct_hi').notNull(),
+  sparkingRate: doublePrecision('sparking_rate').notNull(),
+  sparkingLo: doublePrecision('sparking_lo').notNull(),
+  sparkingHi: doublePrecision('sparking_hi').notNull(),
+  ignitionRate: doublePrecision('ignition_rate').notNull(),
+  ignitionLo: doublePrecision('ignition_lo').notNull(),
+  ignitionHi: doublePrecision('ignition_hi').notNull(),
+  /** Expected annual loss (organisation currency / yr) with its 95 % interval. */
+  expectedAnnualLoss: money('expected_annual_loss').notNull(),
+  expectedAnnualLossLo: money('expected_annual_loss_lo').notNull(),
+  expectedAnnualLossHi: money('expected_annual_loss_hi').notNull(),
+  samples: bigint('samples', { mode: 'number' }).notNull(),
+  drivingComponentClass: text('driving_component_class'),
+  converged: boolean('converged').notNull(),
+}, t => [
+  primaryKey({ columns: [t.runId, t.tankId] }),
+  index('run_tank_results_site_idx').on(t.runId, t.siteId),
+  index('run_tank_results_ignition_idx').on(t.runId, t.ignitionRate),
+])
+
+export const runSiteResults = pgTable('run_site_results', {
+  runId: uuid('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
+  siteId: uuid('site_id').notNull(),
+  /** R of MODEL.md §1 and λ on that disc (flashes/yr). */
+  radiusM: doublePrecision('radius_m').notNull(),
+  lambdaPerYear: doublePrecision('lambda_per_year').notNull(),
+  directRate: doublePrecision('direct_rate').notNull(),
+  directLo: doublePrecision('direct_lo').notNull(),
+  directHi: doublePrecision('direct_hi').notNull(),
+  sparkingRate: doublePrecision('sparking_rate').notNull(),
+  sparkingLo: doublePrecision('sparking_lo').notNull(),
+  sparkingHi: doublePrecision('sparking_hi').notNull(),
+  ignitionRate: doublePrecision('ignition_rate').notNull(),
+  ignitionLo: doublePrecision('ignition_lo').notNull(),
+  ignitionHi: doublePrecision('ignition_hi').notNull(),
+  expectedAnnualLoss: money('expected_annual_loss').notNull(),
+  expectedAnnualLossLo: money('expected_annual_loss_lo').notNull(),
+  expectedAnnualLossHi: money('expected_annual_loss_hi').notNull(),
+  /** Standard errors (frequency mode; year mode: from the counts), so roll-ups can combine them. */
+  directSe: doublePrecision('direct_se').notNull(),
+  sparkingSe: doublePrecision('sparking_se').notNull(),
+  ignitionSe: doublePrecision('ignition_se').notNull(),
+  expectedAnnualLossSe: doublePrecision('expected_annual_loss_se').notNull(),
+  samples: bigint('samples', { mode: 'number' }).notNull(),
+  /** Year mode: the site's summary (AAL, return-period losses, TVaR) and its loss events (packed). */
+  yearSummary: jsonb('year_summary'),
+  events: bytea('events'),
+  /** Share of events by current band × distance band (site heatmap). */
+  eventBands: jsonb('event_bands'),
+}, t => [
+  primaryKey({ columns: [t.runId, t.siteId] }),
+  index('run_site_results_ignition_idx').on(t.runId, t.ignitionRate),
+])
+
+export const runPortfolioResults = pgTable('run_portfolio_results', {
+  runId: uuid('run_id').primaryKey().references(() => runs.id, { onDelete: 'cascade' }),
+  directRate: doublePrecision('direct_rate').notNull(),
+  directLo: doublePrecision('direct_lo').notNull(),
+  directHi: doublePrecision('direct_hi').notNull(),
+  sparkingRate: doublePrecision('sparking_rate').notNull(),
+  sparkingLo: doublePrecision('sparking_lo').notNull(),
+  sparkingHi: doublePrecision('sparking_hi').notNull(),
+  ignitionRate: doublePrecision('ignition_rate').notNull(),
+  ignitionLo: doublePrecision('ignition_lo').notNull(),
+  ignitionHi: doublePrecision('ignition_hi').notNull(),
+  expectedAnnualLoss: money('expected_annual_loss').notNull(),
+  expectedAnnualLossLo: money('expected_annual_loss_lo').notNull(),
+  expectedAnnualLossHi: money('expected_annual_loss_hi').notNull(),
+  /** Standard errors (frequency mode; year mode: from the counts), so roll-ups can combine them. */
+  directSe: doublePrecision('direct_se').notNull(),
+  sparkingSe: doublePrecision('sparking_se').notNull(),
+  ignitionSe: doublePrecision('ignition_se').notNull(),
+  expectedAnnualLossSe: doublePrecision('expected_annual_loss_se').notNull(),
+  /** Year mode: AAL, aggregate/occurrence losses at 10…1000 years, TVaR and the curves. */
+  yearSummary: jsonb('year_summary'),
+  computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
+})
+

@@ -1,0 +1,124 @@
+// Stored results of succeeded runs, shaped for the result views (shared/results/types.ts).
+// Failed and cancelled runs have no results: every query starts from a succeeded run.
+import { and, asc, desc, eq, sql } from 'drizzle-orm'
+import { useDb } from '../db'
+import { runPortfolioResults, runs, runSiteResults, runSiteSnapshots, runTankResults } from '../db/schema'
+import type { SiteFacts } from '../runs/snapshot'
+import type { SiteInput } from '../../shared/engine/types'
+
+export type RunRow = typeof runs.$inferSelect
+type PortfolioRow = typeof runPortfolioResults.$inferSelect
+
+export interface RangedFigure { value: number, lo: number | null, hi: number | null }
+
+interface ReturnPeriodRow { returnPeriodYears: number, loss: number | null, tailValueAtRisk: number | null }
+interface IntervalRow { returnPeriodYears: number, lo: number | null, hi: number | null }
+export interface StoredYearSummary {
+  years: number
+  averageAnnualLoss: number
+  aggregate: ReturnPeriodRow[]
+  occurrence: ReturnPeriodRow[]
+  aggregateCurve: { returnPeriodYears: number, loss: number }[]
+  occurrenceCurve: { returnPeriodYears: number, loss: number }[]
+  intervals?: { aggregate: IntervalRow[], occurrence: IntervalRow[] }
+}
+
+export const TAIL_RETURN_PERIOD = 250
+
+export async function findSucceededRun(organisationId: string, runId: string): Promise<RunRow | null> {
+  const [run] = await useDb().select().from(runs).where(and(eq(runs.id, runId), eq(runs.organisationId, organisationId), eq(runs.state, 'succeeded')))
+  return run ?? null
+}
+
+/** The newest succeeded run of the organisation (optionally of one portfolio). */
+export async function latestSucceededRun(organisationId: string, portfolioId?: string): Promise<RunRow | null> {
+  const [run] = await useDb().select().from(runs)
+    .where(and(eq(runs.organisationId, organisationId), eq(runs.state, 'succeeded'), portfolioId ? eq(runs.portfolioId, portfolioId) : undefined))
+    .orderBy(desc(runs.finishedAt)).limit(1)
+  return run ?? null
+}
+
+const ranged = (value: number, lo: number | null, hi: number | null): RangedFigure => ({ value, lo, hi })
+const none: RangedFigure = { value: Number.NaN, lo: null, hi: null }
+
+function atPeriod(summary: StoredYearSummary | null, T: number): RangedFigure {
+  const row = summary?.aggregate.find(r => r.returnPeriodYears === T)
+  if (!row || row.loss === null) return none
+  const interval = summary?.intervals?.aggregate.find(r => r.returnPeriodYears === T)
+  return ranged(row.loss, interval?.lo ?? null, interval?.hi ?? null)
+}
+
+export function headline(p: Pick<PortfolioRow, 'ignitionRate' | 'ignitionLo' | 'ignitionHi' | 'sparkingRate' | 'sparkingLo' | 'sparkingHi' | 'directRate' | 'directLo' | 'directHi' | 'expectedAnnualLoss' | 'expectedAnnualLossLo' | 'expectedAnnualLossHi'>, summary: StoredYearSummary | null) {
+  const tail = summary?.aggregate.find(r => r.returnPeriodYears === TAIL_RETURN_PERIOD)?.tailValueAtRisk ?? null
+  return {
+    ignitionPerYear: ranged(p.ignitionRate, p.ignitionLo, p.ignitionHi),
+    sparkingPerYear: ranged(p.sparkingRate, p.sparkingLo, p.sparkingHi),
+    directPerYear: ranged(p.directRate, p.directLo, p.directHi),
+    averageAnnualLoss: ranged(p.expectedAnnualLoss, p.expectedAnnualLossLo, p.expectedAnnualLossHi),
+    lossAt100Years: atPeriod(summary, 100),
+    lossAt250Years: atPeriod(summary, 250),
+    tailValueAtRisk: tail === null ? none : ranged(tail, null, null),
+    tailReturnPeriodYears: TAIL_RETURN_PERIOD,
+  }
+}
+
+export function exceedanceSeries(summary: StoredYearSummary | null, name: string) {
+  if (!summary) return []
+  return [
+    { name, kind: 'aggregate' as const, points: summary.aggregateCurve.map(p => ({ returnPeriodYears: p.returnPeriodYears, loss: p.loss })) },
+    { name, kind: 'occurrence' as const, points: summary.occurrenceCurve.map(p => ({ returnPeriodYears: p.returnPeriodYears, loss: p.loss })) },
+  ]
+}
+
+export async function portfolioResult(runId: string) {
+  const [row] = await useDb().select().from(runPortfolioResults).where(eq(runPortfolioResults.runId, runId))
+  return row ?? null
+}
+
+/** Every site of a run with its figures and the facts frozen at the start of the run. */
+export async function siteResults(runId: string) {
+  const rows = await useDb().select({
+    siteId: runSiteResults.siteId, facts: runSiteSnapshots.facts,
+    directRate: runSiteResults.directRate, directLo: runSiteResults.directLo, directHi: runSiteResults.directHi,
+    sparkingRate: runSiteResults.sparkingRate, sparkingLo: runSiteResults.sparkingLo, sparkingHi: runSiteResults.sparkingHi,
+    ignitionRate: runSiteResults.ignitionRate, ignitionLo: runSiteResults.ignitionLo, ignitionHi: runSiteResults.ignitionHi,
+    expectedAnnualLoss: runSiteResults.expectedAnnualLoss, expectedAnnualLossLo: runSiteResults.expectedAnnualLossLo, expectedAnnualLossHi: runSiteResults.expectedAnnualLossHi,
+    radiusM: runSiteResults.radiusM, lambdaPerYear: runSiteResults.lambdaPerYear,
+    lossAt100: sql<number | null>`(${runSiteResults.yearSummary} -> 'aggregate' -> 3 ->> 'loss')::float8`,
+    tanks: sql<number>`jsonb_array_length(${runSiteSnapshots.site} -> 'tanks')`,
+  }).from(runSiteResults)
+    .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))
+    .where(eq(runSiteResults.runId, runId))
+    .orderBy(desc(runSiteResults.ignitionRate), asc(runSiteResults.siteId))
+  return rows.map(r => ({ ...r, facts: r.facts as SiteFacts }))
+}
+
+/** The tanks with the most expected fires in a run (served by the run × ignition index). */
+export async function topTanks(runId: string, limit: number) {
+  return useDb().select({
+    tankId: runTankResults.tankId, siteId: runTankResults.siteId, tag: runTankResults.tag,
+    ignitionRate: runTankResults.ignitionRate, expectedAnnualLoss: runTankResults.expectedAnnualLoss,
+    siteName: sql<string>`${runSiteSnapshots.facts} ->> 'name'`,
+  }).from(runTankResults)
+    .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runTankResults.runId), eq(runSiteSnapshots.siteId, runTankResults.siteId)))
+    .where(eq(runTankResults.runId, runId))
+    .orderBy(desc(runTankResults.ignitionRate), asc(runTankResults.tankId)).limit(limit)
+}
+
+/** One site of a run: its figures, its tanks' figures and its snapshot (engine input and facts). */
+export async function siteDetail(runId: string, siteId: string) {
+  const db = useDb()
+  const [row] = await db.select({ result: runSiteResults, snapshot: runSiteSnapshots }).from(runSiteResults)
+    .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))
+    .where(and(eq(runSiteResults.runId, runId), eq(runSiteResults.siteId, siteId)))
+  if (!row) return null
+  const tanks = await db.select().from(runTankResults)
+    .where(and(eq(runTankResults.runId, runId), eq(runTankResults.siteId, siteId))).orderBy(desc(runTankResults.ignitionRate))
+  const { events: _events, ...result } = row.result
+  return {
+    result: { ...result, yearSummary: result.yearSummary as StoredYearSummary | null },
+    site: row.snapshot.site as SiteInput,
+    facts: row.snapshot.facts as SiteFacts,
+    tanks,
+  }
+}

@@ -1,0 +1,130 @@
+// One site of a run through the engine, reduced to what the database stores. Pure: runs in worker
+// threads (compute-task.ts) and in tests alike.
+import type { AssumptionSet } from '../../shared/engine/assumptions'
+import { parseSite } from '../../shared/engine/site-schema'
+import { simulateSiteFrequency } from '../../shared/engine/frequency'
+import { simulateSiteYears } from '../../shared/engine/years'
+import { Z95 } from '../../shared/engine/statistics'
+import type { CountEstimate, Estimate, SiteInput } from '../../shared/engine/types'
+import type { YearLossSummary } from '../../shared/engine/exceedance'
+import type { PackedEvents } from './events-codec'
+import { siteEventBands, type SiteEventBands } from '../../shared/engine/heatmap'
+
+export type RunMode = 'frequency' | 'year'
+
+export interface SiteTask {
+  site: SiteInput
+  assumptions: AssumptionSet
+  mode: RunMode
+  runSeed: number
+  targetRse: number
+  maxSamplesPerTank: number
+  years: number
+}
+
+/** A rate per year with its standard error and 95 % interval. */
+export interface Figure { rate: number, se: number, lo: number, hi: number }
+
+export interface TankComputation {
+  tankId: string
+  tag: string
+  direct: Figure
+  sparking: Figure
+  ignition: Figure
+  expectedAnnualLoss: Figure
+  samples: number
+  drivingComponentClass: string | null
+  converged: boolean
+}
+
+export interface SiteComputation {
+  siteId: string
+  radiusM: number
+  lambdaPerYear: number
+  direct: Figure
+  sparking: Figure
+  ignition: Figure
+  expectedAnnualLoss: Figure
+  samples: number
+  tanks: TankComputation[]
+  yearSummary: YearLossSummary | null
+  events: PackedEvents | null
+  /** Tank events per year by current band × distance band (the site heatmap). */
+  eventBands: SiteEventBands
+}
+
+const fromEstimate = (e: Estimate): Figure => ({ rate: e.rate, se: e.se, lo: e.lo, hi: e.hi })
+
+/** A simulated count as a rate with the Garwood interval and the Poisson standard error √n / Y. */
+function fromCount(c: CountEstimate, years: number): Figure {
+  return { rate: c.rate, se: Math.sqrt(c.count) / years, lo: c.lo, hi: c.hi }
+}
+
+function fromMean(m: { mean: number, se: number }): Figure {
+  return { rate: m.mean, se: m.se, lo: Math.max(0, m.mean - Z95 * m.se), hi: m.mean + Z95 * m.se }
+}
+
+/** Candidate flashes behind each site's event-band heatmap (a picture, not a headline figure). */
+const EVENT_BAND_SAMPLES = 40_000
+
+export function computeSite(task: SiteTask): SiteComputation {
+  // The snapshot is validated again here: a site that the engine cannot take fails with the reason.
+  const checked = { ...task, site: parseSite(task.site) }
+  const figures = checked.mode === 'frequency' ? computeFrequency(checked) : computeYears(checked)
+  return { ...figures, eventBands: siteEventBands(checked.site, checked.assumptions, { runSeed: checked.runSeed, samples: EVENT_BAND_SAMPLES }) }
+}
+
+type SiteFigures = Omit<SiteComputation, 'eventBands'>
+
+function computeFrequency(task: SiteTask): SiteFigures {
+  const r = simulateSiteFrequency(task.site, task.assumptions, {
+    runSeed: task.runSeed, targetRse: task.targetRse, maxSamplesPerTank: task.maxSamplesPerTank,
+  })
+  return {
+    siteId: r.siteId,
+    radiusM: r.radiusM,
+    lambdaPerYear: r.lambdaPerYear,
+    direct: fromEstimate(r.totals.direct),
+    sparking: fromEstimate(r.totals.sparking),
+    ignition: fromEstimate(r.totals.ignition),
+    expectedAnnualLoss: fromEstimate(r.totals.expectedAnnualLoss),
+    samples: r.samples,
+    tanks: r.tanks.map(t => ({
+      tankId: t.tankId, tag: t.tag,
+      direct: fromEstimate(t.direct), sparking: fromEstimate(t.sparking), ignition: fromEstimate(t.ignition),
+      expectedAnnualLoss: fromEstimate(t.expectedAnnualLoss),
+      samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
+    })),
+    yearSummary: null,
+    events: null,
+  }
+}
+
+function computeYears(task: SiteTask): SiteFigures {
+  const r = simulateSiteYears(task.site, task.assumptions, { runSeed: task.runSeed, years: task.years })
+  const Y = r.years
+  const sumCounts = (pick: (t: typeof r.tanks[number]) => CountEstimate) => r.tanks.reduce((n, t) => n + pick(t).count, 0)
+  const siteCount = (n: number): Figure => {
+    const se = Math.sqrt(n) / Y
+    const rate = n / Y
+    return { rate, se, lo: Math.max(0, rate - Z95 * se), hi: rate + Z95 * se }
+  }
+  return {
+    siteId: r.siteId,
+    radiusM: r.radiusM,
+    lambdaPerYear: r.lambdaPerYear,
+    direct: siteCount(sumCounts(t => t.direct)),
+    sparking: siteCount(sumCounts(t => t.sparking)),
+    ignition: siteCount(sumCounts(t => t.ignition)),
+    expectedAnnualLoss: fromMean({ mean: r.summary.averageAnnualLoss, se: r.summary.averageAnnualLossSe }),
+    samples: r.candidates,
+    tanks: r.tanks.map(t => ({
+      tankId: t.tankId, tag: t.tag,
+      direct: fromCount(t.direct, Y), sparking: fromCount(t.sparking, Y), ignition: fromCount(t.ignition, Y),
+      expectedAnnualLoss: fromMean(t.averageAnnualLoss),
+      samples: r.candidates, drivingComponentClass: null, converged: true,
+    })),
+    yearSummary: r.summary,
+    events: { year: r.events.year, loss: r.events.loss, tankStart: r.events.tankStart, tankIndex: r.events.tankIndex, tankLoss: r.events.tankLoss },
+  }
+}

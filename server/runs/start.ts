@@ -1,0 +1,68 @@
+// Starting a run: freeze the inventory and assumptions, split into chunks, queue the chunks — all in
+// one transaction, so a run is never half-created and never created without its jobs.
+import { randomInt } from 'node:crypto'
+import { and, eq } from 'drizzle-orm'
+import { ENGINE_VERSION } from '../../shared/engine'
+import { parseAssumptions } from '../../shared/engine/assumptions'
+import type { z } from 'zod'
+import type { startRunSchema } from '../../shared/schemas/runs'
+import { useDb } from '../db'
+import { assumptionSets, assumptionSetVersions, runChunks, runs, runSiteSnapshots } from '../db/schema'
+import { withClientTransaction } from '../db/transaction'
+import { queueOptions, useBoss } from '../jobs/queue'
+import { recordAudit } from '../utils/audit'
+import { findReadablePortfolio, inputHash, loadPortfolioSites } from './snapshot'
+
+export type StartRun = z.output<typeof startRunSchema>
+
+export class RunStartError extends Error {
+  constructor(readonly statusCode: 400 | 404, message: string) { super(message) }
+}
+
+export async function startRun(input: StartRun, by: { userId: string | null, organisationId: string }, options: { retryOf?: string } = {}) {
+  const db = useDb()
+  const portfolio = await findReadablePortfolio(db, by.organisationId, input.portfolioId)
+  if (!portfolio) throw new RunStartError(404, 'Portfolio not found.')
+  const [version] = await db.select({ v: assumptionSetVersions, setName: assumptionSets.name }).from(assumptionSetVersions)
+    .innerJoin(assumptionSets, eq(assumptionSets.id, assumptionSetVersions.assumptionSetId))
+    .where(and(eq(assumptionSetVersions.id, input.assumptionVersionId), eq(assumptionSets.organisationId, by.organisationId)))
+  if (!version) throw new RunStartError(404, 'Assumption-set version not found.')
+  const assumptions = parseAssumptions(version.v.parameters)
+  const snapshot = await loadPortfolioSites(db, portfolio.id, assumptions)
+  if (snapshot.length === 0) throw new RunStartError(400, `Portfolio "${portfolio.name}" has no sites to simulate. Add sites first.`)
+
+  const seed = input.seed ?? randomInt(0, 2 ** 31)
+  const hash = inputHash({
+    engineVersion: ENGINE_VERSION, assumptions, mode: input.mode, seed, targetRse: input.targetRse,
+    maxSamplesPerTank: input.maxSamplesPerTank, years: input.years, sites: snapshot.map(s => s.site),
+  })
+  const chunks: string[][] = []
+  for (let i = 0; i < snapshot.length; i += input.chunkSize) chunks.push(snapshot.slice(i, i + input.chunkSize).map(s => s.site.id))
+  const boss = await useBoss()
+
+  return withClientTransaction(async ({ tx, bossDb }) => {
+    const [run] = await tx.insert(runs).values({
+      organisationId: by.organisationId, portfolioId: portfolio.id, portfolioName: portfolio.name,
+      assumptionVersionId: version.v.id, mode: input.mode, seed,
+      targetRse: input.targetRse, maxSamplesPerTank: input.maxSamplesPerTank, years: input.years, chunkSize: input.chunkSize,
+      sitesTotal: snapshot.length, tanksTotal: snapshot.reduce((n, s) => n + s.site.tanks.length, 0), chunksTotal: chunks.length,
+      inputHash: hash, engineVersion: ENGINE_VERSION, requestedBy: by.userId, retryOf: options.retryOf ?? null,
+    }).returning()
+    const runId = run!.id
+    for (let i = 0; i < snapshot.length; i += 500) {
+      await tx.insert(runSiteSnapshots).values(snapshot.slice(i, i + 500).map((s, k) => ({ runId, siteId: s.site.id, position: i + k, site: s.site, facts: s.facts })))
+    }
+    await tx.insert(runChunks).values(chunks.map((siteIds, chunkIndex) => ({ runId, chunkIndex, siteIds })))
+    // A version that a run has used is frozen: editing it makes a new version.
+    await tx.update(assumptionSetVersions).set({ usedByRun: true }).where(eq(assumptionSetVersions.id, version.v.id))
+    await boss.insert(chunks.map((_, chunkIndex) => ({
+      name: 'run.chunk', data: { runId, chunkIndex }, singletonKey: `${runId}:${chunkIndex}`,
+      ...queueOptions['run.chunk'],
+    })), { db: bossDb })
+    await recordAudit({
+      organisationId: by.organisationId, userId: by.userId, action: 'create', entity: 'run', entityId: runId,
+      after: { portfolio: portfolio.name, assumptions: `${version.setName} v${version.v.version}`, mode: input.mode, seed, sites: snapshot.length },
+    }, { tx })
+    return run!
+  })
+}

@@ -1,0 +1,66 @@
+// Works one chunk of a run: compute its sites on the thread pool, store them, finalise if last.
+import { and, asc, eq, inArray } from 'drizzle-orm'
+import { hostname } from 'node:os'
+import { parseAssumptions } from '../../shared/engine/assumptions'
+import type { SiteInput } from '../../shared/engine/types'
+import { useDb } from '../db'
+import { assumptionSetVersions, runChunks, runs, runSiteSnapshots } from '../db/schema'
+import type { SiteComputation } from './compute'
+import { notifyRunEnded } from './ending'
+import { finaliseRun } from './finalise'
+import { storeChunk } from './store'
+import { computeOnThread } from './thread-pool'
+
+export class SiteComputationError extends Error {}
+
+const workerName = `${hostname()}:${process.pid}`
+
+export type ChunkOutcome = 'skipped' | 'stored' | 'duplicate' | 'finalised'
+
+export async function workChunk(runId: string, chunkIndex: number): Promise<ChunkOutcome> {
+  const db = useDb()
+  const [run] = await db.select().from(runs).where(eq(runs.id, runId))
+  if (!run || !['queued', 'running'].includes(run.state)) return 'skipped'
+  const [chunk] = await db.select().from(runChunks).where(and(eq(runChunks.runId, runId), eq(runChunks.chunkIndex, chunkIndex)))
+  if (!chunk) return 'skipped'
+  if (chunk.state === 'done') return (await finaliseIfComplete(runId)) ? 'finalised' : 'duplicate'
+  if (run.state === 'queued') {
+    await db.update(runs).set({ state: 'running', startedAt: new Date() }).where(and(eq(runs.id, runId), eq(runs.state, 'queued')))
+  }
+  await db.update(runChunks).set({ attempts: chunk.attempts + 1, worker: workerName })
+    .where(and(eq(runChunks.runId, runId), eq(runChunks.chunkIndex, chunkIndex)))
+
+  const [version] = await db.select().from(assumptionSetVersions).where(eq(assumptionSetVersions.id, run.assumptionVersionId))
+  const assumptions = parseAssumptions(version!.parameters)
+  const snapshots = await db.select().from(runSiteSnapshots)
+    .where(and(eq(runSiteSnapshots.runId, runId), inArray(runSiteSnapshots.siteId, chunk.siteIds)))
+    .orderBy(asc(runSiteSnapshots.position))
+
+  const computations = await Promise.all(snapshots.map(async (snap) => {
+    const site = snap.site as SiteInput
+    try {
+      return await computeOnThread({
+        site, assumptions, mode: run.mode, runSeed: run.seed,
+        targetRse: run.targetRse, maxSamplesPerTank: run.maxSamplesPerTank, years: run.years,
+      })
+    } catch (error) {
+      throw new SiteComputationError(`site "${site.name}" (${site.id}): ${(error as Error).message}`)
+    }
+  })) satisfies SiteComputation[]
+
+  // The run may have been cancelled while this chunk computed: then nothing is stored.
+  const stored = await db.transaction(async (tx) => {
+    const [current] = await tx.select({ state: runs.state }).from(runs).where(eq(runs.id, runId)).for('share')
+    if (current?.state !== 'running') return null
+    return storeChunk(tx, runId, chunkIndex, computations, workerName)
+  })
+  if (!stored) return 'skipped'
+  if (stored.chunksDone === stored.chunksTotal && (await finaliseIfComplete(runId))) return 'finalised'
+  return stored.alreadyDone ? 'duplicate' : 'stored'
+}
+
+async function finaliseIfComplete(runId: string): Promise<boolean> {
+  const finalised = await finaliseRun(runId)
+  if (finalised) await notifyRunEnded(runId)
+  return finalised
+}

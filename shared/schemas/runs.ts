@@ -1,0 +1,21 @@
+import { z } from 'zod'
+
+export const RUN_MODES = ['frequency', 'year'] as const
+
+export const startRunSchema = z.object({
+  portfolioId: z.uuid('Choose a portfolio.'),
+  assumptionVersionId: z.uuid('Choose an assumption-set version.'),
+  mode: z.enum(RUN_MODES, 'Mode is frequency or year.'),
+  /** Empty: a random seed is drawn and shown. */
+  seed: z.number().int('The seed is a whole number.').min(0, 'The seed is 0 or more.').max(2 ** 48, 'The seed is at most 2⁴⁸.').optional(),
+  /** Frequency mode: relative standard error at which a tank stops (0.02 = 2 %). */
+  targetRse: z.number().min(0.005, 'The target relative standard error is at least 0.5 %.').max(0.5, 'The target relative standard error is at most 50 %.').default(0.02),
+  maxSamplesPerTank: z.number().int().min(1000, 'At least 1,000 samples per tank.').max(10_000_000, 'At most 10,000,000 samples per tank.').default(400_000),
+  /** Year mode: simulated years per site. */
+  years: z.number().int('Years are a whole number.').min(100, 'Simulate at least 100 years.').max(1_000_000, 'Simulate at most 1,000,000 years.').default(10_000),
+  /** Sites per chunk of work; results do not depend on it. */
+  chunkSize: z.number().int().min(1, 'A chunk holds at least one site.').max(1000, 'A chunk holds at most 1,000 sites.').default(20),
+})
+export type StartRunInput = z.input<typeof startRunSchema>
+
+export const runIdParams = z.object({ id: z.uuid('Unknown run.') })

@@ -1,0 +1,32 @@
+// Extra worker processes beside the test app's own, for scale-out and crash tests.
+import { spawn, type ChildProcess } from 'node:child_process'
+import { resolve } from 'node:path'
+import { inject } from 'vitest'
+import { root } from './app-process'
+
+export interface WorkerProcess { child: ChildProcess, output: () => string, ready: Promise<void> }
+
+export function spawnWorker(extraEnv: Record<string, string> = {}): WorkerProcess {
+  const child = spawn(resolve(root, 'node_modules/.bin/tsx'), ['server/jobs/worker.ts'], {
+    cwd: root,
+    env: { ...process.env, STORMLEDGER_DB_NAME: inject('dbName'), DATABASE_URL: '', STORMLEDGER_CHUNK_EXPIRE_SECONDS: '8', STORMLEDGER_QUEUE_MAINTENANCE_SECONDS: '2', ...extraEnv },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  })
+  let out = ''
+  child.stdout?.on('data', (d: Buffer) => { out += d.toString() })
+  child.stderr?.on('data', (d: Buffer) => { out += d.toString() })
+  const ready = new Promise<void>((res, rej) => {
+    const timer = setInterval(() => {
+      if (out.includes('[worker] ready')) { clearInterval(timer); res() }
+      if (child.exitCode !== null) { clearInterval(timer); rej(new Error(`worker exited: ${out}`)) }
+    }, 100)
+  })
+  return { child, output: () => out, ready }
+}
+
+export async function stopWorker(w: WorkerProcess, signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
+  if (w.child.exitCode !== null || w.child.signalCode !== null) return
+  const exited = new Promise(r => w.child.once('exit', r))
+  w.child.kill(signal)
+  await exited
+}
