@@ -2,7 +2,7 @@
 // with the stated equivalence factor from test level to field potential.
 import type { H3Event } from 'h3'
 import { gzipSync } from 'node:zlib'
-import { CalibrationInputError, fitProbit, impulseCsv, parseImpulseCsv, upAndDown, type ImpulseApplication } from '../../shared/calibration'
+import { analyseImpulseSeries, CalibrationInputError, impulseCsv, parseImpulseCsv, type ImpulseApplication } from '../../shared/calibration'
 import type { ImpulseCalibrationInput } from '../../shared/schemas/calibration'
 import { useDb } from '../db'
 import { calibrationFiles, calibrations } from '../db/schema'
@@ -10,34 +10,6 @@ import type { Member } from '../utils/auth'
 import { recordAudit } from '../utils/audit'
 import { badRequest } from '../utils/errors'
 import { sha256 } from './lightning'
-
-function attempt<T>(fn: () => T): { value: T | null, problem: string | null } {
-  try {
-    return { value: fn(), problem: null }
-  } catch (error) {
-    if (error instanceof CalibrationInputError) return { value: null, problem: error.message }
-    throw error
-  }
-}
-
-/** Both methods on one series; each either gives its result or says why it cannot. */
-export function analyseImpulseSeries(series: readonly ImpulseApplication[], equivalenceFactor: number, minimumUseful: number) {
-  const ud = attempt(() => upAndDown(series, { minimumUseful }))
-  const ml = attempt(() => fitProbit(series))
-  return {
-    upAndDown: ud.value, upAndDownProblem: ud.problem,
-    likelihood: ml.value, likelihoodProblem: ml.problem,
-    equivalenceFactor,
-    field: {
-      upAndDownU50Kv: ud.value ? ud.value.u50Kv * equivalenceFactor : null,
-      likelihoodU50Kv: ml.value ? ml.value.u50Kv * equivalenceFactor : null,
-      likelihoodU50Interval: ml.value ? { lo: ml.value.u50Interval.lo * equivalenceFactor, hi: ml.value.u50Interval.hi * equivalenceFactor } : null,
-      // A multiplicative factor shifts ln U50 only; the log scatter σ is unchanged.
-      sigma: ml.value?.sigma ?? null,
-      sigmaInterval: ml.value?.sigmaInterval ?? null,
-    },
-  }
-}
 
 export async function runImpulseCalibration(member: Member, event: H3Event, input: ImpulseCalibrationInput) {
   let series: ImpulseApplication[] = input.series
