@@ -22,9 +22,12 @@ export async function listVersions(setId: string) {
   return useDb().select().from(assumptionSetVersions).where(eq(assumptionSetVersions.assumptionSetId, setId)).orderBy(desc(assumptionSetVersions.version))
 }
 
+/** A database or an open transaction (callers write the version inside their own transaction). */
+export type Executor = Pick<Database, 'select' | 'insert'>
+
 export interface NewVersion { parameters: unknown, note: string, provenance?: Record<string, unknown> }
 
-export async function addVersion(tx: Database, setId: string, userId: string | null, input: NewVersion) {
+export async function addVersion(tx: Executor, setId: string, userId: string | null, input: NewVersion) {
   const parameters = parseAssumptions(input.parameters)
   const [{ latest }] = await tx.select({ latest: max(assumptionSetVersions.version) }).from(assumptionSetVersions).where(eq(assumptionSetVersions.assumptionSetId, setId)) as [{ latest: number | null }]
   const [version] = await tx.insert(assumptionSetVersions).values({
