@@ -43,44 +43,6 @@ CREATE TABLE "calibrations" (
 	CONSTRAINT "calibrations_title_present" CHECK (length("calibrations"."title") > 0)
 );
 --> statement-breakpoint
-CREATE TABLE "assumption_set_versions" (
-	"id" uuid PRIMARY KEY DEFAULT gen_random_uuid() NOT NULL,
-	"assumption_set_id" uuid NOT NULL,
-	"version" integer NOT NULL,
-	"parameters" jsonb NOT NULL,
-	"note" text DEFAULT '' NOT NULL,
-	"provenance" jsonb DEFAULT '{}'::jsonb NOT NULL,
-	"used_by_run" boolean DEFAULT false NOT NULL,
-	"created_by" uuid,
-	"created_at" timestamp with time zone DEFAULT now() NOT NULL,
-	"updated_at" timestamp with time zone DEFAULT now() NOT NULL
-);
---> statement-breakpoint
-CREATE TABLE "assumption_sets" (
-	"id" uuid PRIMARY KEY DEFAULT gen_random_uuid() NOT NULL,
-	"organisation_id" uuid NOT NULL,
-	"name" text NOT NULL,
-	"description" text DEFAULT '' NOT NULL,
-	"created_by" uuid,
-	"created_at" timestamp with time zone DEFAULT now() NOT NULL,
-	"updated_at" timestamp with time zone DEFAULT now() NOT NULL
-);
---> statement-breakpoint
-CREATE TABLE "sites" (
-	"id" uuid PRIMARY KEY DEFAULT gen_random_uuid() NOT NULL,
-	"organisation_id" uuid NOT NULL,
-	"external_id" text NOT NULL,
-	"name" text NOT NULL,
-	"latitude_deg" double precision NOT NULL,
-	"longitude_deg" double precision NOT NULL,
-	"flash_density_per_km2_yr" double precision,
-	"thunderstorm_days_per_yr" double precision,
-	"created_at" timestamp with time zone DEFAULT now() NOT NULL,
-	"updated_at" timestamp with time zone DEFAULT now() NOT NULL,
-	CONSTRAINT "sites_one_flash_source" CHECK (("sites"."flash_density_per_km2_yr" IS NULL) <> ("sites"."thunderstorm_days_per_yr" IS NULL)),
-	CONSTRAINT "sites_flash_density_range" CHECK ("sites"."flash_density_per_km2_yr" IS NULL OR ("sites"."flash_density_per_km2_yr" > 0 AND "sites"."flash_density_per_km2_yr" <= 100))
-);
---> statement-breakpoint
 ALTER TABLE "calibration_applications" ADD CONSTRAINT "calibration_applications_organisation_id_organisations_id_fk" FOREIGN KEY ("organisation_id") REFERENCES "public"."organisations"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "calibration_applications" ADD CONSTRAINT "calibration_applications_calibration_id_calibrations_id_fk" FOREIGN KEY ("calibration_id") REFERENCES "public"."calibrations"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "calibration_applications" ADD CONSTRAINT "calibration_applications_applied_by_users_id_fk" FOREIGN KEY ("applied_by") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;--> statement-breakpoint
@@ -89,11 +51,6 @@ ALTER TABLE "calibration_files" ADD CONSTRAINT "calibration_files_uploaded_by_us
 ALTER TABLE "calibrations" ADD CONSTRAINT "calibrations_organisation_id_organisations_id_fk" FOREIGN KEY ("organisation_id") REFERENCES "public"."organisations"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "calibrations" ADD CONSTRAINT "calibrations_file_id_calibration_files_id_fk" FOREIGN KEY ("file_id") REFERENCES "public"."calibration_files"("id") ON DELETE restrict ON UPDATE no action;--> statement-breakpoint
 ALTER TABLE "calibrations" ADD CONSTRAINT "calibrations_created_by_users_id_fk" FOREIGN KEY ("created_by") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;--> statement-breakpoint
-ALTER TABLE "assumption_set_versions" ADD CONSTRAINT "assumption_set_versions_assumption_set_id_assumption_sets_id_fk" FOREIGN KEY ("assumption_set_id") REFERENCES "public"."assumption_sets"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
-ALTER TABLE "assumption_set_versions" ADD CONSTRAINT "assumption_set_versions_created_by_users_id_fk" FOREIGN KEY ("created_by") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;--> statement-breakpoint
-ALTER TABLE "assumption_sets" ADD CONSTRAINT "assumption_sets_organisation_id_organisations_id_fk" FOREIGN KEY ("organisation_id") REFERENCES "public"."organisations"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
-ALTER TABLE "assumption_sets" ADD CONSTRAINT "assumption_sets_created_by_users_id_fk" FOREIGN KEY ("created_by") REFERENCES "public"."users"("id") ON DELETE set null ON UPDATE no action;--> statement-breakpoint
-ALTER TABLE "sites" ADD CONSTRAINT "sites_organisation_id_organisations_id_fk" FOREIGN KEY ("organisation_id") REFERENCES "public"."organisations"("id") ON DELETE cascade ON UPDATE no action;--> statement-breakpoint
 CREATE INDEX "calibration_applications_calibration_idx" ON "calibration_applications" USING btree ("calibration_id");--> statement-breakpoint
 CREATE INDEX "calibration_applications_org_idx" ON "calibration_applications" USING btree ("organisation_id","created_at");--> statement-breakpoint
 CREATE INDEX "calibration_applications_applied_by_idx" ON "calibration_applications" USING btree ("applied_by");--> statement-breakpoint
@@ -102,6 +59,4 @@ CREATE INDEX "calibration_files_org_created_idx" ON "calibration_files" USING bt
 CREATE INDEX "calibration_files_uploaded_by_idx" ON "calibration_files" USING btree ("uploaded_by");--> statement-breakpoint
 CREATE INDEX "calibrations_org_created_idx" ON "calibrations" USING btree ("organisation_id","created_at");--> statement-breakpoint
 CREATE INDEX "calibrations_file_idx" ON "calibrations" USING btree ("file_id");--> statement-breakpoint
-CREATE INDEX "calibrations_created_by_idx" ON "calibrations" USING btree ("created_by");--> statement-breakpoint
-CREATE UNIQUE INDEX "assumption_versions_set_version_unique" ON "assumption_set_versions" USING btree ("assumption_set_id","version");--> statement-breakpoint
-CREATE UNIQUE INDEX "assumption_sets_org_name_unique" ON "assumption_sets" USING btree ("organisation_id","name");
+CREATE INDEX "calibrations_created_by_idx" ON "calibrations" USING btree ("created_by");

@@ -4,6 +4,3 @@ export * from './audit'
 export * from './mail'
 export * from './system'
 export * from './calibration'
-// TEMPORARY until the merge (see the files): the lead's assumption tables and the inventory's sites.
-export * from './assumptions-temp'
-export * from './calibration-sites-temp'
