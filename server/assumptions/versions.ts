@@ -26,7 +26,7 @@ export async function listVersions(setId: string) {
 export interface NewVersion { parameters: unknown, note: string, provenance?: Record<string, unknown> }
 
 /** Adds the next version of a set (validated against the engine's schema). */
-export async function addVersion(tx: Database, setId: string, userId: string | null, input: NewVersion) {
+export async function addVersion(tx: Pick<Database, 'select' | 'insert'>, setId: string, userId: string | null, input: NewVersion) {
   const parameters = parseAssumptions(input.parameters)
   const [{ latest } = { latest: 0 }] = await tx.select({ latest: max(assumptionSetVersions.version) }).from(assumptionSetVersions)
     .where(eq(assumptionSetVersions.assumptionSetId, setId))

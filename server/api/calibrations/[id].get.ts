@@ -1,0 +1,9 @@
+// GET /api/calibrations/:id — one calibration: inputs, results with methods and intervals, its source file, where it was applied.
+import { z } from 'zod'
+import { getCalibration } from '~~/server/calibration/queries'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event)
+  const { id } = await getValidatedRouterParams(event, z.object({ id: z.uuid() }).parse)
+  return getCalibration(member.organisationId, id)
+})

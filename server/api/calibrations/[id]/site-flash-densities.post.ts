@@ -1,0 +1,11 @@
+// POST /api/calibrations/:id/site-flash-densities — a lightning calibration's Ng written onto chosen sites (audited).
+import { z } from 'zod'
+import { applyToSitesSchema } from '~~/shared/schemas/calibration'
+import { applyToSites } from '~~/server/calibration/apply'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.editors })
+  const { id } = await getValidatedRouterParams(event, z.object({ id: z.uuid() }).parse)
+  const body = await readValidatedBody(event, applyToSitesSchema.parse)
+  return applyToSites(member, event, id, body.siteIds)
+})

@@ -1,0 +1,156 @@
+// Turning a calibration into assumptions: a new assumption-set version whose changed values carry
+// their provenance, or new ground flash densities on sites. One transaction each, audited.
+import type { H3Event } from 'h3'
+import { and, eq } from 'drizzle-orm'
+import { EngineInputError } from '../../shared/engine/assumptions'
+import { roundSignificant } from '../../shared/format'
+import type { LognormalFit, ProbitFit, UpAndDownResult } from '../../shared/calibration'
+import { addVersion, findVersion, mergeParameters } from '../assumptions/versions'
+import { useDb } from '../db'
+import { calibrationApplications, calibrations } from '../db/schema'
+import type { Member } from '../utils/auth'
+import { recordAudit } from '../utils/audit'
+import { badRequest, conflict, notFound } from '../utils/errors'
+import type { LightningSiteRow } from './lightning'
+import { findSites, setSiteFlashDensity } from './sites'
+
+type Calibration = typeof calibrations.$inferSelect
+
+export async function findCalibration(organisationId: string, id: string): Promise<Calibration> {
+  const [row] = await useDb().select().from(calibrations).where(and(eq(calibrations.id, id), eq(calibrations.organisationId, organisationId)))
+  if (!row) notFound('Calibration')
+  return row
+}
+
+interface FileRef { id: string, name: string, sha256: string, rows: number }
+
+/** One parameter's provenance: the value, where it came from and how, shown beside it. */
+export interface ParameterProvenance {
+  source: 'calibration'
+  calibrationId: string
+  calibrationKind: 'lightning' | 'impulse'
+  title: string
+  method: string
+  file: FileRef
+  value: number | string
+  unit: string
+  interval: { lo: number, hi: number, confidence: number } | null
+  detail: string
+  appliedBy: string
+  appliedAt: string
+}
+
+interface Change { key: string, value: number | string, unit: string, method: string, interval: ParameterProvenance['interval'], detail: string }
+
+function setPath(target: Record<string, unknown>, key: string, value: unknown) {
+  const parts = key.split('.')
+  let node = target
+  for (const p of parts.slice(0, -1)) node = (node[p] ??= {}) as Record<string, unknown>
+  node[parts.at(-1)!] = value
+}
+
+function lightningChanges(c: Calibration): Change[] {
+  const results = c.results as { pooled: { fit: LognormalFit | null, fitProblem: string | null, currents: number }, sites: LightningSiteRow[] }
+  const fit = results.pooled.fit
+  if (!fit) conflict(`This calibration has no current fit to apply: ${results.pooled.fitProblem ?? 'too few currents'}.`)
+  const detail = `${fit.n} negative first strokes from ${results.sites.length} site${results.sites.length === 1 ? '' : 's'}, detection threshold ${fit.thresholdKa} kA`
+  return [
+    { key: 'currentLaw', value: 'lognormal', unit: '', method: fit.method, interval: null, detail },
+    { key: 'lognormalMedianKa', value: roundSignificant(fit.medianKa, 4), unit: 'kA', method: fit.method, interval: { ...fit.medianInterval, confidence: fit.confidence }, detail },
+    { key: 'lognormalBeta', value: roundSignificant(fit.beta, 4), unit: '', method: fit.method, interval: { ...fit.betaInterval, confidence: fit.confidence }, detail },
+  ]
+}
+
+function impulseChanges(c: Calibration, method: 'likelihood' | 'up_and_down'): Change[] {
+  const inputs = c.inputs as { componentClass: string, configuration: string, equivalenceFactor: number, equivalenceBasis: string }
+  const results = c.results as { upAndDown: UpAndDownResult | null, upAndDownProblem: string | null, likelihood: ProbitFit | null, likelihoodProblem: string | null }
+  const k = inputs.equivalenceFactor
+  const factor = `test level × equivalence factor ${k} (${inputs.equivalenceBasis}); configuration: ${inputs.configuration}`
+  const base = `thresholds.${inputs.componentClass}`
+  const changes: Change[] = []
+  if (method === 'up_and_down') {
+    const ud = results.upAndDown
+    if (!ud) conflict(`The up-and-down result is not valid for this series: ${results.upAndDownProblem}`)
+    changes.push({ key: `${base}.u50Kv`, value: roundSignificant(ud.u50Kv * k, 4), unit: 'kV', method: ud.method, interval: null, detail: factor })
+  }
+  const ml = results.likelihood
+  if (!ml) {
+    if (method === 'likelihood') conflict(`The maximum-likelihood fit is not available for this series: ${results.likelihoodProblem}`)
+    return changes
+  }
+  if (method === 'likelihood') {
+    changes.push({ key: `${base}.u50Kv`, value: roundSignificant(ml.u50Kv * k, 4), unit: 'kV', method: ml.method, interval: { lo: ml.u50Interval.lo * k, hi: ml.u50Interval.hi * k, confidence: ml.confidence }, detail: factor })
+  }
+  changes.push({ key: `${base}.sigma`, value: roundSignificant(ml.sigma, 4), unit: '', method: ml.method, interval: { ...ml.sigmaInterval, confidence: ml.confidence }, detail: `${ml.applications} applications; ${factor}` })
+  return changes
+}
+
+export async function applyToAssumptions(member: Member, event: H3Event, calibrationId: string, input: { assumptionVersionId: string, note: string, method: 'likelihood' | 'up_and_down' }) {
+  const calibration = await findCalibration(member.organisationId, calibrationId)
+  const base = await findVersion(member.organisationId, input.assumptionVersionId)
+  if (!base) notFound('Assumption-set version')
+  const changes = calibration.kind === 'lightning' ? lightningChanges(calibration) : impulseChanges(calibration, input.method)
+  const file = (calibration.results as { file: FileRef }).file
+  const appliedAt = new Date().toISOString()
+  const parameterChanges: Record<string, unknown> = {}
+  const provenance: Record<string, ParameterProvenance> = {}
+  for (const ch of changes) {
+    setPath(parameterChanges, ch.key, ch.value)
+    provenance[ch.key] = {
+      source: 'calibration', calibrationId: calibration.id, calibrationKind: calibration.kind, title: calibration.title, method: ch.method,
+      file, value: ch.value, unit: ch.unit, interval: ch.interval, detail: ch.detail, appliedBy: member.user.name, appliedAt,
+    }
+  }
+  const note = input.note || `From calibration "${calibration.title}"`
+  try {
+    return await useDb().transaction(async (tx) => {
+      const version = await addVersion(tx, base.set.id, member.user.id, {
+        parameters: mergeParameters(base.version.parameters, parameterChanges),
+        note,
+        provenance: { ...(base.version.provenance as Record<string, unknown>), ...provenance },
+      })
+      const values = Object.fromEntries(changes.map(ch => [ch.key, ch.value]))
+      await tx.insert(calibrationApplications).values({ organisationId: member.organisationId, calibrationId: calibration.id, target: 'assumption_version', assumptionVersionId: version.id, values, appliedBy: member.user.id })
+      await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'create', entity: 'assumption_version', entityId: version.id, before: { versionId: base.version.id, version: base.version.version }, after: { setId: base.set.id, version: version.version, note, changed: values, fromCalibration: calibration.id } }, { tx, event })
+      return { version: { id: version.id, version: version.version, setId: base.set.id, setName: base.set.name }, values, provenance }
+    })
+  } catch (error) {
+    if (error instanceof EngineInputError) badRequest(`The calibrated values do not make a valid assumption set: ${error.issues.join('; ')}`)
+    throw error
+  }
+}
+
+/** Site flash densities accepted by the inventory (its CHECK: above 0, at most 100 flashes/km²/yr). */
+const NG_MAX = 100
+
+export async function applyToSites(member: Member, event: H3Event, calibrationId: string, siteIds: readonly string[]) {
+  const calibration = await findCalibration(member.organisationId, calibrationId)
+  if (calibration.kind !== 'lightning') badRequest('Only a lightning calibration gives site flash densities.')
+  const rows = (calibration.results as { sites: LightningSiteRow[] }).sites
+  const chosen = [...new Set(siteIds)].map((id) => {
+    const row = rows.find(r => r.siteId === id)
+    if (!row) badRequest('A chosen site was not part of this calibration.')
+    if (!(row.flashDensity.ng > 0) || row.flashDensity.ng > NG_MAX) {
+      badRequest(`${row.name}: a flash density of ${row.flashDensity.ng} flashes/km²/yr cannot be applied (no flashes counted, or above ${NG_MAX}). Widen the radius or keep the site's current value.`)
+    }
+    return row
+  })
+  return useDb().transaction(async (tx) => {
+    const current = await findSites(member.organisationId, chosen.map(r => r.siteId), tx, true)
+    if (current.length !== chosen.length) notFound('Site')
+    const values: Record<string, number> = {}
+    for (const row of chosen) {
+      const before = current.find(s => s.id === row.siteId)!
+      const ng = roundSignificant(row.flashDensity.ng, 4)
+      await setSiteFlashDensity(tx, member.organisationId, row.siteId, ng)
+      values[row.siteId] = ng
+      await recordAudit({
+        organisationId: member.organisationId, userId: member.user.id, action: 'update', entity: 'site', entityId: row.siteId,
+        before: { flashDensityPerKm2Yr: before.flashDensity, thunderstormDaysPerYr: before.thunderstormDays },
+        after: { flashDensityPerKm2Yr: ng, thunderstormDaysPerYr: null, fromCalibration: calibration.id, interval: { lo: row.flashDensity.lo, hi: row.flashDensity.hi } },
+      }, { tx, event })
+    }
+    await tx.insert(calibrationApplications).values({ organisationId: member.organisationId, calibrationId: calibration.id, target: 'site_flash_density', values, appliedBy: member.user.id })
+    return { sites: chosen.map(r => ({ siteId: r.siteId, name: r.name, flashDensity: values[r.siteId]! })) }
+  })
+}

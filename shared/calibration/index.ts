@@ -1,0 +1,13 @@
+// Calibration statistics (MODEL.md §7): framework-free, used by the server and by the browser.
+export { CalibrationInputError } from './errors'
+export { haversineKm, boundingBox, insideBox, EARTH_MEAN_RADIUS_KM } from './geo'
+export { estimateFlashDensity, type FlashDensityEstimate, type FlashDensityInput } from './flash-density'
+export { fitTruncatedLognormal, truncatedLognormalLogLikelihood, MINIMUM_CURRENTS_FOR_FIT, type LognormalFit } from './lognormal-fit'
+export type { ImpulseApplication } from './impulse'
+export { upAndDown, IEC_MINIMUM_USEFUL_APPLICATIONS, type UpAndDownResult, type UpAndDownLevel } from './up-and-down'
+export { fitProbit, probitLogLikelihood, sparkProbability, type ProbitFit } from './probit'
+export * from './lightning-records'
+export * from './impulse-records'
+export * from './lightning-analysis'
+export * from './current-curves'
+export * from './impulse-analysis'

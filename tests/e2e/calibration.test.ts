@@ -1,0 +1,84 @@
+// Both calibration tools in a real browser: an analyst uploads the example files, sees both
+// methods and the fit plot, and the saved calibration keeps its source.
+import { resolve } from 'node:path'
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import type { Browser, Page } from 'playwright-core'
+import { createOrganisation, memberClient } from '../support/accounts'
+import { launchBrowser, openGuardedPage, saveScreenshot } from '../support/browser'
+import { testPool } from '../support/db'
+
+const pool = testPool()
+let browser: Browser
+let cookie: string
+
+beforeAll(async () => {
+  browser = await launchBrowser()
+  const org = await createOrganisation(pool, 'Calibration Browser Operator')
+  await pool.query(`INSERT INTO sites (organisation_id, external_id, name, latitude_deg, longitude_deg, thunderstorm_days_per_yr) VALUES ($1, 'CB-1', 'Bayou tank farm', 29.76, -95.37, 60)`, [org])
+  cookie = (await memberClient(pool, org, 'analyst')).cookie
+})
+afterAll(async () => { await browser?.close(); await pool.end() })
+
+async function signedInPage(): Promise<Awaited<ReturnType<typeof openGuardedPage>>> {
+  const guarded = await openGuardedPage(browser)
+  const [name, value] = cookie.split('=') as [string, string]
+  await guarded.context.addCookies([{ name, value, url: inject('baseUrl') }])
+  return guarded
+}
+
+async function inked(page: Page, testId: string): Promise<number> {
+  const canvas = page.locator(`[data-testid="${testId}"] canvas`).first()
+  await canvas.waitFor({ state: 'visible' })
+  await page.waitForTimeout(500)
+  return canvas.evaluate((c: HTMLCanvasElement) => {
+    const { data } = c.getContext('2d')!.getImageData(0, 0, c.width, c.height)
+    let n = 0
+    for (let i = 3; i < data.length; i += 4) if (data[i]! > 0) n++
+    return n
+  })
+}
+
+const examples = resolve(import.meta.dirname, '../../docs/examples')
+
+describe('calibration in a real browser', () => {
+  it('impulse: the example series gives both methods side by side, a drawn fit, and a saved calibration', async () => {
+    const { page, context, outsideRequests } = await signedInPage()
+    await page.goto(`${inject('baseUrl')}/calibration/impulse`, { waitUntil: 'networkidle' })
+    await page.getByTestId('impulse-upload').setInputFiles(resolve(examples, 'impulse-series.csv'))
+    // The example is the hand-worked series: up-and-down U50 = 92.8 kV (IEC 60060-1 mean of the valid levels).
+    await expect.poll(() => page.getByTestId('up-and-down-result').innerText()).toContain('92.8 kV')
+    expect(await page.getByTestId('likelihood-result').innerText()).toMatch(/σ \(log\)/)
+    expect(await inked(page, 'impulse-chart')).toBeGreaterThan(1000)
+    await page.getByTestId('impulse-title').fill('Float switch, example series')
+    await page.getByTestId('impulse-configuration').fill('float 20 mm from wall, 1.2/50 µs, negative')
+    await page.getByTestId('impulse-basis').fill('test waveshape taken as the induced one')
+    await page.getByTestId('impulse-save').click()
+    await page.waitForURL(/\/calibration\/[0-9a-f-]{36}$/)
+    await expect.poll(() => page.getByTestId('source-link').innerText()).toBe('impulse-series.csv')
+    expect(await inked(page, 'impulse-chart')).toBeGreaterThan(1000)
+    await page.waitForTimeout(1000) // let the chart's entry animation finish before the screenshot
+    await saveScreenshot(page, 'calibration-impulse')
+    expect(outsideRequests).toEqual([])
+    await context.close()
+  })
+
+  it('lightning: uploading, refusing a bad file with its row errors, and Ng with the fit plot', async () => {
+    const { page, context, outsideRequests } = await signedInPage()
+    await page.goto(`${inject('baseUrl')}/calibration/lightning`, { waitUntil: 'networkidle' })
+    await page.getByTestId('lightning-upload').setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: Buffer.from('time,latitude,longitude,peak_current_ka,type\n2022-06-03T14:35:59Z,95.2,-95.4,-33.1,ground\n') })
+    // Latitude beyond 90° is impossible (WGS 84); the row is named by its line.
+    await expect.poll(() => page.getByTestId('row-errors').innerText()).toContain('latitude "95.2" must be decimal degrees between −90 and 90')
+    await page.getByTestId('lightning-upload').setInputFiles(resolve(examples, 'lightning-records.csv'))
+    await expect.poll(() => page.getByTestId('lightning-file').innerText()).toContain('lightning-records.csv')
+    await page.getByTestId('lightning-title').fill('Example records')
+    await page.getByLabel('All sites').check()
+    await page.getByTestId('lightning-radius').fill('20')
+    await page.getByTestId('lightning-submit').click()
+    await page.waitForURL(/\/calibration\/[0-9a-f-]{36}$/)
+    expect(await page.getByTestId('site-density-table').innerText()).toContain('Bayou tank farm')
+    expect(await inked(page, 'current-fit-chart')).toBeGreaterThan(1000)
+    await saveScreenshot(page, 'calibration-lightning')
+    expect(outsideRequests).toEqual([])
+    await context.close()
+  })
+})
