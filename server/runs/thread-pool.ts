@@ -13,7 +13,8 @@ export function threadCount(): number {
 export function useThreadPool(): Piscina {
   pool ??= new Piscina({
     filename: new URL('./compute-task.ts', import.meta.url).href,
-    minThreads: 1,
+    // Every thread starts (and loads the engine) with the worker, not on the first chunk.
+    minThreads: threadCount(),
     maxThreads: threadCount(),
     idleTimeout: 60_000,
   })

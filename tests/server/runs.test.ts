@@ -19,7 +19,7 @@ let versionId: string
 // Small, fast runs: few samples per tank and a loose target keep each run to seconds.
 const quick = { mode: 'frequency', targetRse: 0.2, maxSamplesPerTank: 4000 } as const
 
-async function waitForRun(client: Client, id: string, timeoutMs = 90_000) {
+async function waitForRun(client: Client, id: string, timeoutMs = 180_000) {
   const started = Date.now()
   for (;;) {
     const run = await (await client.get(`/api/runs/${id}`)).json()
@@ -72,7 +72,7 @@ describe('runs', () => {
     // The version is now frozen.
     const { rows } = await pool.query(`SELECT used_by_run FROM assumption_set_versions WHERE id = $1`, [versionId])
     expect(rows[0].used_by_run).toBe(true)
-  })
+  }, 240_000)
 
   it('e-mails the person who started the run when it ends', async () => {
     const id = await start(analyst, { seed: 12 })
@@ -87,7 +87,7 @@ describe('runs', () => {
       await new Promise(r => setTimeout(r, 200))
     }
     throw new Error('no run e-mail captured')
-  })
+  }, 240_000)
 
   it('gives bit-identical results for the same inputs and seed, whatever the chunk size or number of workers', async () => {
     const one = await start(analyst, { seed: 424242, chunkSize: 12 })
@@ -106,7 +106,7 @@ describe('runs', () => {
     } finally {
       await Promise.all(extra.map(w => stopWorker(w)))
     }
-  })
+  }, 240_000)
 
   it('year mode: identical tables for chunk sizes 12 and 5, with exceedance figures', async () => {
     const a = await start(analyst, { mode: 'year', years: 2000, seed: 7, chunkSize: 12 })
@@ -118,7 +118,7 @@ describe('runs', () => {
     expect(await portfolioResult(b)).toEqual(pa)
     expect(pa.year_summary.years).toBe(2000)
     expect(pa.year_summary.aggregate.map((r: { returnPeriodYears: number }) => r.returnPeriodYears)).toEqual([10, 25, 50, 100, 250, 500, 1000])
-  })
+  }, 240_000)
 
   it('a worker killed in the middle of a run: another finishes it, with the same results', async () => {
     const reference = await start(analyst, { seed: 99, chunkSize: 12, targetRse: 0.05, maxSamplesPerTank: 60000 })
@@ -136,7 +136,7 @@ describe('runs', () => {
     const run = await waitForRun(analyst, id, 120_000)
     expect(run.state).toBe('succeeded')
     expect(await tankResults(id)).toEqual(await tankResults(reference))
-  })
+  }, 240_000)
 
   it('PostgreSQL restarted during a run: the run still completes', async () => {
     const id = await start(analyst, { seed: 5, chunkSize: 1, targetRse: 0.05, maxSamplesPerTank: 60000 })
@@ -146,7 +146,7 @@ describe('runs', () => {
     const run = await waitForRun(analyst, id, 150_000)
     expect(run.state).toBe('succeeded')
     expect(run.progress.sitesDone).toBe(12)
-  })
+  }, 240_000)
 
   it('cancel: the run ends cancelled and shows no result', async () => {
     const id = await start(analyst, { mode: 'year', years: 200000, chunkSize: 1, seed: 1 })
@@ -158,7 +158,7 @@ describe('runs', () => {
     expect(await portfolioResult(id)).toBeUndefined()
     expect((await (await analyst.get(`/api/runs/${id}`)).json()).results).toBeNull()
     expect((await analyst.post(`/api/runs/${id}/cancel`)).status).toBe(409)
-  })
+  }, 240_000)
 
   it('a chunk that fails on bad data fails the run with a message naming the site; nothing partial is visible', async () => {
     // A run whose snapshot holds a site the engine refuses (negative tank height), queued as the app would.
@@ -181,7 +181,7 @@ describe('runs', () => {
     expect(ended.errorMessage).toMatch(/tank height must be above 0 m/)
     expect(ended.results).toBeNull()
     expect(await tankResults(run.id)).toEqual([])
-  })
+  }, 240_000)
 
   it('answers 404 for another organisation’s run and for unknown ids', async () => {
     const id = await start(analyst, { seed: 3 })
@@ -191,5 +191,5 @@ describe('runs', () => {
     expect((await outsider.post(`/api/runs/${id}/cancel`)).status).toBe(404)
     expect((await outsider.post('/api/runs', { portfolioId, assumptionVersionId: versionId, mode: 'frequency' })).status).toBe(404)
     await waitForRun(analyst, id)
-  })
+  }, 240_000)
 })

@@ -23,7 +23,7 @@ export function appEnv(o: AppOptions): NodeJS.ProcessEnv {
     STORMLEDGER_PUBLIC_URL: `http://localhost:${o.port}`,
     SMTP_HOST: '',
     // Short expiry and frequent maintenance so the crash tests see a dead worker's chunk handed on quickly.
-    STORMLEDGER_CHUNK_EXPIRE_SECONDS: '8',
+    STORMLEDGER_CHUNK_EXPIRE_SECONDS: '30',
     STORMLEDGER_QUEUE_MAINTENANCE_SECONDS: '2',
     NODE_ENV: 'production',
   }

@@ -9,7 +9,7 @@ export interface WorkerProcess { child: ChildProcess, output: () => string, read
 export function spawnWorker(extraEnv: Record<string, string> = {}): WorkerProcess {
   const child = spawn(resolve(root, 'node_modules/.bin/tsx'), ['server/jobs/worker.ts'], {
     cwd: root,
-    env: { ...process.env, STORMLEDGER_DB_NAME: inject('dbName'), DATABASE_URL: '', STORMLEDGER_CHUNK_EXPIRE_SECONDS: '8', STORMLEDGER_QUEUE_MAINTENANCE_SECONDS: '2', ...extraEnv },
+    env: { ...process.env, STORMLEDGER_DB_NAME: inject('dbName'), DATABASE_URL: '', STORMLEDGER_CHUNK_EXPIRE_SECONDS: '30', STORMLEDGER_QUEUE_MAINTENANCE_SECONDS: '2', ...extraEnv },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
   let out = ''
