@@ -8,6 +8,7 @@ export const queueOptions: Record<JobName, Omit<PgBoss.Queue, 'name'>> = {
   'mail.send': { retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 60 },
   // A chunk whose worker died is handed to another worker once it expires.
   'run.chunk': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },
+  'scenario.site': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },
 }
 
 let boss: PgBoss | undefined

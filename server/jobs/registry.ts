@@ -2,6 +2,7 @@
 import type PgBoss from 'pg-boss'
 import { handleMailSend } from './mail-send'
 import { handleRunChunk } from './run-chunk'
+import { handleScenarioSite } from './scenario-site'
 import { threadCount } from '../runs/thread-pool'
 import type { JobName, JobPayloads } from './types'
 
@@ -13,4 +14,6 @@ export const jobRegistry: Registry = {
   'mail.send': { handler: handleMailSend, work: { pollingIntervalSeconds: 1, batchSize: 5 }, concurrency: () => 1 },
   // One chunk per core at a time; the chunk's sites spread over the thread pool.
   'run.chunk': { handler: handleRunChunk, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount },
+  // One site per core at a time (capital planning's scenario evaluations).
+  'scenario.site': { handler: handleScenarioSite, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount },
 }

@@ -2,6 +2,7 @@
 export interface JobPayloads {
   'mail.send': { to: string, subject: string, text: string }
   'run.chunk': { runId: string, chunkIndex: number }
+  'scenario.site': { evaluationId: string, siteId: string }
 }
 
 export type JobName = keyof JobPayloads

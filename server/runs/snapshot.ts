@@ -37,6 +37,12 @@ export async function loadPortfolioSites(db: Database, portfolioId: string, assu
     .innerJoin(sites, eq(sites.id, portfolioSites.siteId))
     .where(eq(portfolioSites.portfolioId, portfolioId))
     .orderBy(asc(sites.id))
+  return snapshotSites(db, siteRows.map(r => r.site), assumptions)
+}
+
+/** The given inventory sites as engine input with their facts (also used by capital planning). */
+export async function snapshotSites(db: Database, siteList: Array<typeof sites.$inferSelect>, assumptions: AssumptionSet): Promise<SnapshotSite[]> {
+  const siteRows = siteList.map(site => ({ site }))
   if (siteRows.length === 0) return []
   const siteIds = siteRows.map(r => r.site.id)
   const tankRows = await db.select().from(tanks).where(inArray(tanks.siteId, siteIds)).orderBy(asc(tanks.siteId), asc(tanks.tag))

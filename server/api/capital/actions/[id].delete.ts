@@ -1,0 +1,17 @@
+// DELETE /api/capital/actions/:id — withdraw a candidate action (asset managers, admins).
+import { and, eq } from 'drizzle-orm'
+import { idParams } from '~~/shared/schemas/capital'
+import { useDb } from '~~/server/db'
+import { capitalActions } from '~~/server/db/schema'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.planners })
+  const { id } = await getValidatedRouterParams(event, idParams.parse)
+  await useDb().transaction(async (tx) => {
+    const [row] = await tx.delete(capitalActions).where(and(eq(capitalActions.id, id), eq(capitalActions.organisationId, member.organisationId))).returning()
+    if (!row) notFound('Action')
+    await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'delete', entity: 'capital_action', entityId: id, before: { option: row.optionId, tank: row.tankId, cost: row.cost } }, { tx, event })
+  })
+  setResponseStatus(event, 204)
+  return null
+})

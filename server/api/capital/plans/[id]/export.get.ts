@@ -1,0 +1,19 @@
+// GET /api/capital/plans/:id/export — the plan as a workbook, with the caution (everyone but viewers).
+import { idParams } from '~~/shared/schemas/capital'
+import { useDb } from '~~/server/db'
+import { planDetail } from '~~/server/capital/plan-detail'
+import { writePlanWorkbook } from '~~/server/capital/workbook'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.exporters })
+  const { id } = await getValidatedRouterParams(event, idParams.parse)
+  const detail = await planDetail(useDb(), member.organisationId, id)
+  if (!detail) notFound('Plan')
+  const body = await writePlanWorkbook(detail, member.currency)
+  await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'capital_plan', entityId: id, after: { actions: detail.actions.length } }, { event })
+  setResponseHeaders(event, {
+    'content-type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    'content-disposition': `attachment; filename="stormledger-capital-plan-${new Date().toISOString().slice(0, 10)}.xlsx"`,
+  })
+  return body
+})
