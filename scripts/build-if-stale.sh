@@ -4,7 +4,7 @@ set -euo pipefail
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
 cd "$ROOT"
 sources=$(find app.vue nuxt.config.ts tailwind.config.ts package-lock.json pages components composables layouts middleware plugins stores assets public server shared docs \
-  -type f 2>/dev/null | LC_ALL=C sort)
+  -type f 2>/dev/null | LC_ALL=C sort || true) # folders that do not exist yet are skipped
 sum=$(echo "$sources" | xargs sha256sum | sha256sum | cut -d' ' -f1)
 stamp=.output/.stormledger-build.sha
 if [ -f .output/server/index.mjs ] && [ -f "$stamp" ] && [ "$(cat "$stamp")" = "$sum" ]; then
