@@ -138,3 +138,28 @@ describe('gallery sample figures', () => {
     agg.forEach((p, k) => expect(p.loss).toBeGreaterThanOrEqual(occ[k]!.loss))
   })
 })
+
+describe('what-if parameters', () => {
+  it('reads known values from the query and reports the rejected ones', async () => {
+    const { paramsFromQuery, defaultWhatIfParams } = await import('../../shared/results/whatif-params')
+    const { params, rejected } = paramsFromQuery({ ng: '6.5', height: ['9'], u50: 'abc', sigma: '5', law: 'lognormal' })
+    // Values taken from the query above; the rest stay at the defaults.
+    expect(params.flashDensity).toBe(6.5)
+    expect(params.tankHeightM).toBe(9)
+    expect(params.u50Kv).toBe(defaultWhatIfParams.u50Kv)
+    expect(params.sigma).toBe(defaultWhatIfParams.sigma)
+    expect(params.currentLaw).toBe('lognormal')
+    expect(rejected).toHaveLength(2)
+    expect(rejected[1]).toContain('between 0 and 1')
+  })
+
+  it('round-trips through the query string and lists what changed', async () => {
+    const { paramsFromQuery, queryFromParams, changedParams, defaultWhatIfParams } = await import('../../shared/results/whatif-params')
+    const changed = { ...defaultWhatIfParams, mastHeightM: 30, shieldKa: 50 }
+    const q = queryFromParams(changed)
+    // Only differing values go in the query (defaults are implied).
+    expect(q).toEqual({ shield: '50', mast: '30' })
+    expect(paramsFromQuery(q).params).toEqual(changed)
+    expect(changedParams(changed, defaultWhatIfParams).map(c => [c.key, c.from, c.to])).toEqual([['shieldKa', 0, 50], ['mastHeightM', 0, 30]])
+  })
+})
