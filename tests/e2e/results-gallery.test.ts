@@ -108,9 +108,32 @@ describe('chart gallery with sample figures', () => {
       const body = await (await fetch(new URL(src, inject('baseUrl')))).text()
       expect(body).not.toContain('Madagascar')
     }
-    // Choosing a site through the keyboard-reachable list emits its id (as a click on its symbol does).
-    await page.locator('[data-testid="map-sites"] ul[aria-label="Sites on the map"] button').first().evaluate((b: HTMLButtonElement) => b.click())
-    expect(await page.getByTestId('selected-site').textContent()).toContain('/sites/sample-site-')
+    // A click on a site's symbol emits its id. Symbols are the only things outlined in a near-black
+    // neutral (the theme's ink 900, shared/theme.ts; the ramp's dark end is blue), so the first such
+    // pixel lies on a symbol's edge.
+    const map = page.getByTestId('map-sites')
+    await map.scrollIntoViewIfNeeded()
+    const canvas = map.locator('canvas').first()
+    const hit = await canvas.evaluate((c: HTMLCanvasElement, rgb: number[]) => {
+      const ctx = c.getContext('2d')!
+      const { data, width } = ctx.getImageData(0, 0, c.width, c.height)
+      const scale = c.width / c.getBoundingClientRect().width
+      for (let i = 0; i < data.length; i += 4) {
+        const [r, g, b, a] = [data[i]!, data[i + 1]!, data[i + 2]!, data[i + 3]!]
+        if (a > 200 && r < rgb[0]! + 28 && g < rgb[1]! + 24 && b < rgb[2]! + 27 && b - r < 25) {
+          const k = i / 4
+          return { x: (k % width) / scale, y: Math.floor(k / width) / scale }
+        }
+      }
+      return null
+    }, [0x16, 0x1a, 0x21])
+    expect(hit).not.toBeNull()
+    const box = (await canvas.boundingBox())!
+    await page.mouse.click(box.x + hit!.x, box.y + hit!.y + 1)
+    await page.waitForFunction(() => document.querySelector('[data-testid="selected-site"]')?.textContent?.includes('/sites/sample-site-'), undefined, { timeout: 5000 })
+    // The keyboard-reachable list of sites emits the id too.
+    await page.locator('[data-testid="map-sites"] ul[aria-label="Sites on the map"] button').nth(1).evaluate((b: HTMLButtonElement) => b.click())
+    expect(await page.getByTestId('selected-site').textContent()).toContain('/sites/sample-site-2)')
   })
 
   it('shows the loading, empty and error states', async () => {
