@@ -1,4 +1,6 @@
 // Stormledger — Nuxt 4 with the root layout (pages/, components/, server/ at the top).
+import { fileURLToPath } from 'node:url'
+
 export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
@@ -32,6 +34,8 @@ export default defineNuxtConfig({
       traceInclude: ['async-function', 'async-generator-function', 'generator-function']
         .map(p => `node_modules/${p}/require.mjs`),
     },
+    // docs/ is bundled into the server so the methodology page renders from the one Markdown file.
+    serverAssets: [{ baseName: 'docs', dir: fileURLToPath(new URL('./docs', import.meta.url)) }],
   },
   vite: {
     optimizeDeps: { include: ['echarts/core', 'echarts/charts', 'echarts/components', 'echarts/renderers', 'vue-echarts', 'zod', 'seedrandom', 'jstat'] },
