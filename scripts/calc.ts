@@ -1,0 +1,139 @@
+// Command-line entry to the risk engine: reads a JSON document (one site or a list of sites, with an
+// optional partial assumption set merged over the defaults) and prints JSON results.
+//   npm run calc -- <input.json> [--mode frequency|year|quadrature] [--seed N] [--years N]
+//                   [--target-rse X] [--max-samples N] [--events]
+// The input format is documented in docs/engine.md (example: examples/site.json).
+// Bad input: a message on stderr and exit code 2.
+import { readFileSync } from 'node:fs'
+import {
+  ENGINE_VERSION, EngineInputError, isolatedTankQuadrature, parseAssumptions, parseSite, rollUpFrequency, rollUpYears,
+  simulateSiteFrequency, simulateSiteYears,
+} from '../shared/engine/index'
+import type { AssumptionSet, SiteInput, SiteYearResult } from '../shared/engine/index'
+
+type Mode = 'frequency' | 'year' | 'quadrature'
+
+interface Options { file: string; mode: Mode; seed: number; years: number; targetRse: number; maxSamples: number; events: boolean }
+
+const USAGE = 'usage: calc <input.json> [--mode frequency|year|quadrature] [--seed N] [--years N] [--target-rse X] [--max-samples N] [--events]'
+
+class UsageError extends Error {}
+
+function parseArgs(argv: string[]): Options {
+  const options: Options = { file: '', mode: 'frequency', seed: 1, years: 10_000, targetRse: 0.02, maxSamples: 400_000, events: false }
+  for (let i = 0; i < argv.length; i++) {
+    const arg = argv[i]!
+    const value = () => {
+      const v = argv[++i]
+      if (v === undefined) throw new UsageError(`${arg} needs a value`)
+      return v
+    }
+    switch (arg) {
+      case '--mode': options.mode = parseMode(value()); break
+      case '--seed': options.seed = parseNumber(arg, value(), (n) => Number.isInteger(n), 'a whole number'); break
+      case '--years': options.years = parseNumber(arg, value(), (n) => Number.isInteger(n) && n >= 1 && n <= 10_000_000, 'a whole number from 1 to 10 000 000'); break
+      case '--target-rse': options.targetRse = parseNumber(arg, value(), (n) => n > 0 && n < 1, 'a number between 0 and 1 (e.g. 0.02)'); break
+      case '--max-samples': options.maxSamples = parseNumber(arg, value(), (n) => Number.isInteger(n) && n >= 1000, 'a whole number ≥ 1000'); break
+      case '--events': options.events = true; break
+      case '--help': case '-h': throw new UsageError(USAGE)
+      default:
+        if (arg.startsWith('--')) throw new UsageError(`unknown option ${arg}\n${USAGE}`)
+        if (options.file) throw new UsageError(`only one input file, got '${options.file}' and '${arg}'`)
+        options.file = arg
+    }
+  }
+  if (!options.file) throw new UsageError(`no input file\n${USAGE}`)
+  return options
+}
+
+function parseMode(v: string): Mode {
+  if (v === 'frequency' || v === 'year' || v === 'quadrature') return v
+  throw new UsageError(`--mode must be frequency, year or quadrature, got '${v}'`)
+}
+
+function parseNumber(flag: string, text: string, ok: (n: number) => boolean, what: string): number {
+  const n = Number(text)
+  if (text.trim() === '' || !Number.isFinite(n) || !ok(n)) throw new UsageError(`${flag} must be ${what}, got '${text}'`)
+  return n
+}
+
+interface Document { sites: SiteInput[]; assumptions: AssumptionSet }
+
+/** Accepts { site, assumptions }, { sites, assumptions }, a bare site, or a list of sites. */
+function readDocument(file: string): Document {
+  let text: string
+  try { text = readFileSync(file, 'utf8') } catch (e) { throw new UsageError(`cannot read ${file}: ${(e as Error).message}`) }
+  let doc: unknown
+  try { doc = JSON.parse(text) } catch (e) { throw new UsageError(`${file} is not valid JSON: ${(e as Error).message}`) }
+  const record = typeof doc === 'object' && doc !== null && !Array.isArray(doc) ? doc as Record<string, unknown> : null
+  const rawSites = Array.isArray(doc) ? doc : record && 'sites' in record ? record.sites : record && 'site' in record ? [record.site] : record && 'tanks' in record ? [record] : null
+  if (!Array.isArray(rawSites) || rawSites.length === 0) {
+    throw new UsageError(`${file}: expected { "site": {…} }, { "sites": [ … ] }, a site, or a list of sites (see docs/engine.md)`)
+  }
+  const assumptions = withPrefix('assumptions', () => parseAssumptions(record && 'assumptions' in record ? record.assumptions : {}))
+  const sites = rawSites.map((s, i) => withPrefix(`sites[${i}]`, () => parseSite(s)))
+  const ids = new Set<string>()
+  for (const s of sites) {
+    if (ids.has(s.id)) throw new EngineInputError('Invalid input', [`site id '${s.id}' appears twice (each site's random streams derive from its id)`])
+    ids.add(s.id)
+  }
+  return { sites, assumptions }
+}
+
+function withPrefix<T>(prefix: string, f: () => T): T {
+  try { return f() } catch (e) {
+    if (e instanceof EngineInputError) throw new EngineInputError(`Invalid input in ${prefix}`, e.issues)
+    throw e
+  }
+}
+
+function yearSiteJson(r: SiteYearResult, withEvents: boolean) {
+  const { yearLosses, yearMaxEventLoss, events, ...rest } = r
+  if (!withEvents) return { ...rest, eventCount: events.year.length }
+  return {
+    ...rest,
+    yearLosses: Array.from(yearLosses),
+    yearMaxEventLoss: Array.from(yearMaxEventLoss),
+    events: Array.from(events.year, (year, e) => ({
+      year, loss: events.loss[e]!,
+      tanks: Array.from({ length: events.tankCount[e]! }, (_, k) => {
+        const at = events.tankStart[e]! + k
+        return { tankId: r.tanks[events.tankIndex[at]!]!.tankId, loss: events.tankLoss[at]! }
+      }),
+    })),
+  }
+}
+
+function run(o: Options): unknown {
+  const { sites, assumptions } = readDocument(o.file)
+  const header = { engineVersion: ENGINE_VERSION, mode: o.mode, runSeed: o.seed, assumptions }
+  if (o.mode === 'frequency') {
+    const results = sites.map((s) => simulateSiteFrequency(s, assumptions, { runSeed: o.seed, targetRse: o.targetRse, maxSamplesPerTank: o.maxSamples }))
+    return { ...header, targetRse: o.targetRse, sites: results, portfolio: rollUpFrequency(results) }
+  }
+  if (o.mode === 'year') {
+    const results = sites.map((s) => simulateSiteYears(s, assumptions, { runSeed: o.seed, years: o.years }))
+    const { summary } = rollUpYears(results)
+    return { ...header, years: o.years, sites: results.map((r) => yearSiteJson(r, o.events)), portfolio: { summary } }
+  }
+  return {
+    ...header,
+    note: 'each tank taken alone (no neighbours, no structures): MODEL.md §6',
+    sites: sites.map((s) => ({ siteId: s.id, tanks: s.tanks.map((t) => ({ tankId: t.id, tag: t.tag, ...isolatedTankQuadrature(t, s.flashDensity, assumptions) })) })),
+  }
+}
+
+function main(): number {
+  try {
+    const output = run(parseArgs(process.argv.slice(2)))
+    process.stdout.write(`${JSON.stringify(output, null, 2)}\n`)
+    return 0
+  } catch (e) {
+    if (e instanceof UsageError) { process.stderr.write(`calc: ${e.message}\n`); return 2 }
+    if (e instanceof EngineInputError) { process.stderr.write(`calc: ${e.message}\n`); return 2 }
+    process.stderr.write(`calc: unexpected failure: ${e instanceof Error ? e.stack ?? e.message : String(e)}\n`)
+    return 1
+  }
+}
+
+process.exitCode = main()
