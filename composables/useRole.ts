@@ -1,9 +1,6 @@
-// The signed-in person's role in the current organisation, for shaping pages (the server decides).
-import type { RoleName } from '~~/shared/navigation'
-
+// What the signed-in person's role lets a page offer (the server decides; this only shapes the page).
 export function useRole() {
-  const { session } = useUserSession()
-  const role = computed<RoleName | null>(() => session.value?.role ?? null)
+  const { role } = useAccount()
   const canEdit = computed(() => role.value === 'admin' || role.value === 'analyst')
   return { role, canEdit }
 }

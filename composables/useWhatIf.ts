@@ -4,6 +4,7 @@
 import { ENGINE_VERSION, isolatedTankQuadrature, parseAssumptions, simulateSiteFrequency, tankSparkingHeatmap } from '~~/shared/engine'
 import type { SiteInput, TankInput } from '~~/shared/engine/types'
 import type { TankSparkingGrid, RangedFigure } from '~~/shared/results/types'
+import { toSparkingGrid } from '~~/shared/results/engine-grid'
 import type { WhatIfParams } from '~~/shared/results/whatif-params'
 
 export interface WhatIfResult { sparkingPerYear: number, directPerYear: number, ignitionPerYear: number }
@@ -68,7 +69,7 @@ export function useWhatIf(params: Ref<WhatIfParams>, options: { debounceMs?: num
       const q = isolatedTankQuadrature(tank, p.flashDensity, assumptions)
       const h = tankSparkingHeatmap(tank, whatIfSite(p), assumptions, WHATIF_GRID)
       result.value = { sparkingPerYear: q.sparkingPerYear, directPerYear: q.directPerYear, ignitionPerYear: q.ignitionPerYear }
-      grid.value = { currentsKa: h.currentsKa, distancesM: h.distancesM, probability: h.probability, directStrikeDistanceM: h.directStrikeDistanceM }
+      grid.value = toSparkingGrid(h)
       error.value = null
     }
     catch (e) {

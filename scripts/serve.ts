@@ -11,26 +11,37 @@ import { demoSignIns } from './demo-sign-ins'
 const root = resolve(import.meta.dirname, '..')
 const port = Number(process.env.PORT ?? 3000)
 const env = { ...process.env, NUXT_SESSION_PASSWORD: sessionSecret(root), PORT: String(port), STORMLEDGER_ROOT: root }
-const children: ChildProcess[] = []
+const children = new Map<string, ChildProcess>()
 let stopping = false
 
-function run(name: string, command: string, args: string[]): ChildProcess {
-  const child = spawn(command, args, { cwd: root, env, stdio: 'inherit' })
-  child.on('exit', (code, signal) => {
-    if (!stopping) {
-      console.error(`[start] ${name} stopped unexpectedly (${signal ?? `exit ${code}`}); stopping everything`)
-      void stop(1)
-    }
-  })
-  children.push(child)
-  return child
+/** Restarts a process that dies unexpectedly (e.g. a dropped database connection), at most 5 times a minute. */
+function run(name: string, command: string, args: string[]): void {
+  const restarts: number[] = []
+  const launch = () => {
+    const child = spawn(command, args, { cwd: root, env, stdio: 'inherit' })
+    children.set(name, child)
+    child.on('exit', (code, signal) => {
+      if (stopping) return
+      const now = Date.now()
+      restarts.push(now)
+      while (restarts.length && now - restarts[0]! > 60_000) restarts.shift()
+      if (restarts.length > 5) {
+        console.error(`[start] ${name} keeps stopping (${signal ?? `exit ${code}`}); stopping everything`)
+        void stop(1)
+        return
+      }
+      console.error(`[start] ${name} stopped unexpectedly (${signal ?? `exit ${code}`}); starting it again`)
+      setTimeout(launch, 1000)
+    })
+  }
+  launch()
 }
 
 async function stop(code = 0) {
   if (stopping) return
   stopping = true
   console.log('\n[start] stopping the server and the worker…')
-  await Promise.all(children.map(c => new Promise<void>((done) => {
+  await Promise.all([...children.values()].map(c => new Promise<void>((done) => {
     if (c.exitCode !== null || c.signalCode !== null) return done()
     c.once('exit', () => done())
     c.kill('SIGTERM')

@@ -2,7 +2,8 @@
 // This shapes what people see; the server checks every request on its own (requireMembership).
 import { navSections, type RoleName } from './navigation'
 
-const PUBLIC_PATHS = ['/', '/sign-in', '/methodology']
+// The what-if computes in the browser from its own inputs and the gallery shows invented figures: no data of anyone's.
+const PUBLIC_PATHS = ['/', '/sign-in', '/methodology', '/what-if', '/preview/results']
 const PUBLIC_PREFIXES = ['/reset-password', '/invitations/', '/methodology/']
 
 export function isPublicPath(path: string): boolean {

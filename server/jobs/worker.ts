@@ -27,6 +27,9 @@ async function shutdown(signal: string) {
   await closeDb().catch(() => {})
   process.exit(0)
 }
+// A connection dropped under a running query (PostgreSQL restarted) must not take the worker down:
+// the job fails, pg-boss retries it, and the pool reconnects.
+process.on('unhandledRejection', reason => console.error('[worker] unhandled rejection:', (reason as Error)?.message ?? reason))
 process.on('SIGINT', () => void shutdown('SIGINT'))
 process.on('SIGTERM', () => void shutdown('SIGTERM'))
 

@@ -40,3 +40,11 @@ rules.push(
   { method: 'GET', file: 'server/api/runs/[id]/sites/index.get.ts', path: '/api/runs/[id]/sites', allowed: [...everyone], params: { id: 'runId' } },
   { method: 'GET', file: 'server/api/runs/[id]/sites/[siteId].get.ts', path: '/api/runs/[id]/sites/[siteId]', allowed: [...everyone], params: { id: 'runId', siteId: 'siteIdOfRun' } },
 )
+
+rules.push(
+  { method: 'GET', file: 'server/api/runs/[id]/export.get.ts', path: '/api/runs/[id]/export', allowed: ['admin', 'analyst', 'underwriter', 'asset_manager'], params: { id: 'runId' } },
+)
+
+rules.push(
+  { method: 'GET', file: 'server/api/runs/compare.get.ts', path: '/api/runs/compare', allowed: ['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer'] },
+)

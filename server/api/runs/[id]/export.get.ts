@@ -1,0 +1,33 @@
+// GET /api/runs/:id/export — the results workbook of a succeeded run (everyone but viewers); audited.
+import { eq } from 'drizzle-orm'
+import { runIdParams } from '~~/shared/schemas/runs'
+import { useDb } from '~~/server/db'
+import { runTankResults, users } from '~~/server/db/schema'
+import { findVersion } from '~~/server/assumptions/versions'
+import { findSucceededRun, portfolioResult, siteResults } from '~~/server/results/queries'
+import { writeResultsWorkbook } from '~~/server/results/workbook'
+import { settings } from '~~/server/settings'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.exporters })
+  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
+  const run = await findSucceededRun(member.organisationId, id)
+  if (!run) notFound('Results of this run')
+  const db = useDb()
+  const [portfolio, sites, tanks, version, requester] = await Promise.all([
+    portfolioResult(run.id), siteResults(run.id),
+    db.select().from(runTankResults).where(eq(runTankResults.runId, run.id)).orderBy(runTankResults.siteId, runTankResults.tag),
+    findVersion(member.organisationId, run.assumptionVersionId),
+    run.requestedBy ? db.select({ name: users.name }).from(users).where(eq(users.id, run.requestedBy)) : Promise.resolve([]),
+  ])
+  if (!portfolio || !version) notFound('Results of this run')
+  const buffer = await writeResultsWorkbook({
+    run, portfolio, sites, tanks, currency: member.currency, publicUrl: settings.publicUrl,
+    assumptions: { setName: version.set.name, version: version.version.version, parameters: version.version.parameters },
+    requestedBy: requester[0]?.name ?? null, exportedBy: member.user.name,
+  })
+  await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'run', entityId: run.id, after: { workbook: 'results' } }, { event })
+  setResponseHeader(event, 'content-type', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
+  setResponseHeader(event, 'content-disposition', `attachment; filename="stormledger-results-${run.id.slice(0, 8)}.xlsx"`)
+  return buffer
+})
