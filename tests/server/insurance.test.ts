@@ -3,10 +3,10 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import ExcelJS from 'exceljs'
 import { defaultAssumptions } from '../../shared/engine/assumptions'
-import { encodeEvents } from '../../server/runs/events-codec'
 import { createOrganisation, memberClient, type Client } from '../support/accounts'
 import { testPool } from '../support/db'
 import { createDefaultAssumptions, createFleet } from '../support/fleet'
+import { insertHandMadeRun } from '../support/insurance'
 
 const pool = testPool()
 let org: string
@@ -19,32 +19,9 @@ let assumptionVersionId: string
 let siteA: string
 let siteB: string
 
-/** Packs events (year, loss), one tank per event, as the year mode stores them. */
-function packed(events: [number, number][]) {
-  return encodeEvents({
-    year: Int32Array.from(events.map(e => e[0])), loss: Float64Array.from(events.map(e => e[1])),
-    tankStart: Int32Array.from({ length: events.length + 1 }, (_, i) => i), tankIndex: new Int32Array(events.length), tankLoss: Float64Array.from(events.map(e => e[1])),
-  })
-}
-
-/** A succeeded simulated-years run of 10 years with the given site events, written straight into the result tables. */
-async function handMadeRun(siteEvents: Record<string, [number, number][]>, names: Record<string, string> = {}) {
-  const { rows: [run] } = await pool.query(
-    `INSERT INTO runs (organisation_id, portfolio_id, portfolio_name, assumption_version_id, mode, seed, target_rse, max_samples_per_tank, years,
-      chunk_size, sites_total, tanks_total, chunks_total, input_hash, engine_version, state, finished_at)
-     VALUES ($1, $2, 'Terms fleet', $3, 'year', 7, 0.2, 4000, 10, 1, 2, 2, 1, 'hand-made', 'test', 'succeeded', now()) RETURNING id`, [org, portfolioId, assumptionVersionId])
-  let position = 0
-  for (const [siteId, events] of Object.entries(siteEvents)) {
-    await pool.query(`INSERT INTO run_site_snapshots (run_id, site_id, position, site, facts) VALUES ($1, $2, $3, '{}', $4)`,
-      [run.id, siteId, position++, JSON.stringify({ name: names[siteId] ?? `Site ${position}`, externalId: `X-${position}`, operatorName: 'Hand-made operator' })])
-    await pool.query(
-      `INSERT INTO run_site_results (run_id, site_id, radius_m, lambda_per_year, direct_rate, direct_lo, direct_hi, sparking_rate, sparking_lo, sparking_hi,
-        ignition_rate, ignition_lo, ignition_hi, expected_annual_loss, expected_annual_loss_lo, expected_annual_loss_hi, direct_se, sparking_se, ignition_se,
-        expected_annual_loss_se, samples, events)
-       VALUES ($1, $2, 1000, 1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 10, $3)`, [run.id, siteId, packed(events)])
-  }
-  return run.id as string
-}
+/** A succeeded 10-year run with the given site events. */
+const handMadeRun = (siteEvents: Record<string, [number, number][]>, names: Record<string, string> = {}) =>
+  insertHandMadeRun(pool, { organisationId: org, portfolioId, assumptionVersionId, years: 10, siteEvents, names })
 
 beforeAll(async () => {
   org = await createOrganisation(pool, 'Terms Test Insurer', 'insurer')
