@@ -14,6 +14,8 @@ export const navSections: NavSection[] = [
   { label: 'Sites', to: '/sites' },
   { label: 'Runs', to: '/runs' },
   { label: 'Assumptions', to: '/assumptions' },
+  // Terms editing is the underwriters' workspace; every role reads a run's financial view from the run.
+  { label: 'Insurance', to: '/insurance', roles: ['admin', 'underwriter'] },
   { label: 'Capital plan', to: '/capital-plan', roles: ['admin', 'analyst', 'asset_manager', 'underwriter', 'viewer'] },
   { label: 'Calibration', to: '/calibration', roles: ['admin', 'analyst'] },
   { label: 'Admin', to: '/admin', roles: ['admin'] },

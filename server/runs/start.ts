@@ -11,6 +11,7 @@ import { assumptionSets, assumptionSetVersions, runChunks, runs, runSiteSnapshot
 import { withClientTransaction } from '../db/transaction'
 import { queueOptions, useBoss } from '../jobs/queue'
 import { recordAudit } from '../utils/audit'
+import { recordRunTerms } from '../insurance/terms-store'
 import { findReadablePortfolio, inputHash, loadPortfolioSites } from './snapshot'
 
 export type StartRun = z.output<typeof startRunSchema>
@@ -55,6 +56,8 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
     await tx.insert(runChunks).values(chunks.map((siteIds, chunkIndex) => ({ runId, chunkIndex, siteIds })))
     // A version that a run has used is frozen: editing it makes a new version.
     await tx.update(assumptionSetVersions).set({ usedByRun: true }).where(eq(assumptionSetVersions.id, version.v.id))
+    // The portfolio's current policy terms, if any, are recorded and frozen the same way.
+    await recordRunTerms(tx, runId, by.organisationId, portfolio.id)
     await boss.insert(chunks.map((_, chunkIndex) => ({
       name: 'run.chunk', data: { runId, chunkIndex }, singletonKey: `${runId}:${chunkIndex}`,
       ...queueOptions['run.chunk'],

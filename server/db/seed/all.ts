@@ -3,7 +3,9 @@ import { accountsSeeder } from './accounts'
 import { assumptionsSeeder } from './assumptions'
 import { seeders } from './index'
 import { seedInventory } from './inventory'
+import { insuranceSeeder } from './insurance'
 
 seeders.push(accountsSeeder)
 seeders.push({ name: 'inventory', run: seedInventory })
 seeders.push(assumptionsSeeder)
+seeders.push(insuranceSeeder)

@@ -1,0 +1,26 @@
+// GET /api/runs/:id/financial-workbook — the financial view as a workbook (Summary with cautions and
+// provenance, Sites, Premium, Exceedance), with the same query as the view.
+import { runIdParams } from '~~/shared/schemas/runs'
+import { financialQuerySchema } from '~~/shared/schemas/insurance'
+import { FinancialViewError, financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
+import { writeFinancialWorkbook } from '~~/server/insurance/workbook'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event, { roles: ROLES.exporters })
+  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
+  const query = await getValidatedQuery(event, financialQuerySchema.parse)
+  let view
+  try {
+    view = financialView(await loadFinancialInputs(member.organisationId, id, query.termsVersionId), { ...query, whatIfOccurrenceDeductible: undefined, whatIfAggregateDeductible: undefined })
+  } catch (error) {
+    if (error instanceof FinancialViewError) throw createError({ statusCode: error.statusCode, statusMessage: error.message })
+    throw error
+  }
+  const body = await writeFinancialWorkbook(view, { currency: member.currency, exportedBy: `${member.user.name} <${member.user.email}>`, exportedAt: new Date() })
+  await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'financial_results', entityId: id, after: { termsVersionId: view.terms?.versionId ?? null, pricing: view.pricing } }, { event })
+  setResponseHeaders(event, {
+    'content-type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
+    'content-disposition': `attachment; filename="stormledger-financial-${id.slice(0, 8)}.xlsx"`,
+  })
+  return body
+})

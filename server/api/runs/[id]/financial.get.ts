@@ -1,0 +1,20 @@
+// GET /api/runs/:id/financial — the financial view of a succeeded simulated-years run: ground-up,
+// after-terms and insured losses per site and for the portfolio, exceedance, the sites behind the
+// tail and the technical premium; with whatIf* query values, the same figures with changed
+// deductibles, from the stored events (no new simulation).
+import { runIdParams } from '~~/shared/schemas/runs'
+import { financialQuerySchema } from '~~/shared/schemas/insurance'
+import { FinancialViewError, financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
+
+export default defineEventHandler(async (event) => {
+  const member = await requireMembership(event)
+  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
+  const query = await getValidatedQuery(event, financialQuerySchema.parse)
+  try {
+    const inputs = await loadFinancialInputs(member.organisationId, id, query.termsVersionId)
+    return { currency: member.currency, ...financialView(inputs, query) }
+  } catch (error) {
+    if (error instanceof FinancialViewError) throw createError({ statusCode: error.statusCode, statusMessage: error.message })
+    throw error
+  }
+})

@@ -1,0 +1,4 @@
+// Insurance terms and pricing on simulated loss events (framework-free).
+export * from './terms'
+export * from './pricing'
+export * from './financials'
