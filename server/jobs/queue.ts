@@ -5,7 +5,8 @@ import type { JobName, JobPayloads } from './types'
 
 /** Queue options per job; every queue the product uses is listed here. */
 export const queueOptions: Record<JobName, Omit<PgBoss.Queue, 'name'>> = {
-  'mail.send': { retryLimit: 5, retryDelay: 10, retryBackoff: true, expireInSeconds: 60 },
+  // Short first retries: a message refused during a database blip goes out seconds later.
+  'mail.send': { retryLimit: 8, retryDelay: 2, retryBackoff: true, expireInSeconds: 60 },
   // A chunk whose worker died is handed to another worker once it expires.
   'run.chunk': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },
   'scenario.site': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },

@@ -32,11 +32,13 @@ export async function startMailFake(port: number): Promise<SMTPServer> {
 
 async function storeMessage(raw: Buffer, to: string[], from: string): Promise<void> {
   const parsed = await simpleParser(raw)
-  await useDb().insert(capturedMail).values({
+  const insert = () => useDb().insert(capturedMail).values({
     fromAddress: from,
     toAddresses: to.join(', '),
     subject: parsed.subject ?? '(no subject)',
     textBody: parsed.text ?? '',
     raw: raw.toString('utf8'),
   })
+  // A pooled connection that PostgreSQL dropped fails once; a fresh one takes the message.
+  await insert().catch(() => insert())
 }

@@ -50,7 +50,9 @@ export async function workChunk(runId: string, chunkIndex: number): Promise<Chun
 
   // The run may have been cancelled while this chunk computed: then nothing is stored.
   const stored = await db.transaction(async (tx) => {
-    const [current] = await tx.select({ state: runs.state }).from(runs).where(eq(runs.id, runId)).for('share')
+    // The run row is locked for update first: chunks finishing together then queue here instead of
+    // deadlocking on the later update of the run's counters.
+    const [current] = await tx.select({ state: runs.state }).from(runs).where(eq(runs.id, runId)).for('no key update')
     if (current?.state !== 'running') return null
     return storeChunk(tx, runId, chunkIndex, computations, workerName)
   })

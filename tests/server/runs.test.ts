@@ -91,12 +91,13 @@ describe('runs', () => {
 
   it('gives bit-identical results for the same inputs and seed, whatever the chunk size or number of workers', async () => {
     const one = await start(analyst, { seed: 424242, chunkSize: 12 })
-    await waitForRun(analyst, one)
+    expect((await waitForRun(analyst, one)).state).toBe('succeeded')
     const extra: WorkerProcess[] = [spawnWorker(), spawnWorker()]
     await Promise.all(extra.map(w => w.ready))
     try {
       const many = await start(analyst, { seed: 424242, chunkSize: 1 })
-      await waitForRun(analyst, many)
+      const ended = await waitForRun(analyst, many)
+      expect(ended.state, ended.errorMessage ?? '').toBe('succeeded')
       const a = await tankResults(one)
       const b = await tankResults(many)
       expect(b).toEqual(a)

@@ -1,0 +1,72 @@
+import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
+import type { Browser, Page } from 'playwright-core'
+import { launchBrowser, openGuardedPage, saveScreenshot, type GuardedPage } from '../support/browser'
+import { signInPage } from '../support/browser-session'
+import { waitForDrawnChart } from '../support/charts'
+
+// The demo scenario's insurer underwriter (README "Demo sign-ins").
+const UNDERWRITER = 'underwriter@cobaltridge.example'
+const DEMO_PASSWORD = 'stormledger-demo-2026'
+
+let browser: Browser
+let guarded: GuardedPage
+let page: Page
+let runId: string
+
+/** The demo run queued at seeding: waits (from the page, with its session) until it has finished. */
+async function demoRun(p: Page): Promise<string> {
+  for (let i = 0; i < 400; i++) {
+    const runs = await p.evaluate(async () => (await fetch('/api/runs')).json()) as { id: string, state: string }[]
+    const done = runs.find(r => r.state === 'succeeded')
+    if (done) return done.id
+    if (runs.length && runs.every(r => r.state === 'failed' || r.state === 'cancelled')) throw new Error('the demo run did not succeed')
+    await p.waitForTimeout(1000)
+  }
+  throw new Error('the demo run did not finish in time')
+}
+
+beforeAll(async () => {
+  browser = await launchBrowser()
+  guarded = await openGuardedPage(browser)
+  page = guarded.page
+  await signInPage(page, inject('baseUrl'), UNDERWRITER, DEMO_PASSWORD)
+  runId = await demoRun(page)
+}, 480_000)
+afterAll(async () => { await browser?.close() })
+
+describe('results of the demo run in a real browser', () => {
+  it('overview: headline tiles, exceedance curves, drivers, map and sites × metrics heatmap, with the caution', async () => {
+    await page.goto(`${inject('baseUrl')}/overview?run=${runId}`, { waitUntil: 'networkidle' })
+    await page.getByTestId('headline-tiles').waitFor()
+    expect(await page.getByTestId('headline-tiles').textContent()).toMatch(/\/yr/)
+    expect(await waitForDrawnChart(page, page.getByTestId('exceedance-chart'))).toBeGreaterThan(2000)
+    expect(await page.getByTestId('drivers-list').count()).toBe(2)
+    expect(await waitForDrawnChart(page, page.getByTestId('map-sites'), 5000, 30_000)).toBeGreaterThan(5000)
+    expect(await waitForDrawnChart(page, page.getByTestId('site-metric-heatmap'))).toBeGreaterThan(2000)
+    expect(await page.getByTestId('caution-notice').count()).toBeGreaterThan(0)
+    await saveScreenshot(page, 'results-overview')
+    expect(guarded.outsideRequests).toEqual([])
+  })
+
+  it('site results: the plan coloured by risk, tank figures, event bands and the tank heatmap', async () => {
+    const sites = await page.evaluate(async id => (await fetch(`/api/runs/${id}/sites`)).json(), runId) as { sites: { siteId: string }[] }
+    await page.goto(`${inject('baseUrl')}/results/${runId}/sites/${sites.sites[0]!.siteId}`, { waitUntil: 'networkidle' })
+    await page.getByTestId('site-plan').waitFor()
+    expect(await page.getByTestId('plan-tank').count()).toBeGreaterThan(0)
+    expect(await waitForDrawnChart(page, page.getByTestId('event-bands-heatmap'))).toBeGreaterThan(2000)
+    expect(await waitForDrawnChart(page, page.getByTestId('tank-heatmap'))).toBeGreaterThan(2000)
+    await saveScreenshot(page, 'results-site')
+    expect(guarded.outsideRequests).toEqual([])
+  })
+
+  it('compare: two sites side by side with the higher value of each row marked', async () => {
+    const sites = await page.evaluate(async id => (await fetch(`/api/runs/${id}/sites`)).json(), runId) as { sites: { siteId: string }[] }
+    const pair = sites.sites.slice(0, 2).map(s => s.siteId).join(',')
+    await page.goto(`${inject('baseUrl')}/results/${runId}/compare?sites=${pair}`, { waitUntil: 'networkidle' })
+    await page.getByTestId('compare-table').waitFor()
+    expect(await page.locator('[data-testid="compare-table"] thead th').count()).toBe(3)
+    expect(await page.locator('[data-highest="true"]').count()).toBeGreaterThan(0)
+    await saveScreenshot(page, 'results-compare')
+    expect(guarded.outsideRequests).toEqual([])
+  })
+})
