@@ -68,7 +68,8 @@ describe('inviting an analyst, end to end', () => {
     expect(await page.getByLabel('E-mail').inputValue()).toBe(invitee)
     await signIn(page, null, 'fibreglass under thunder')
     await page.waitForURL(`${base}/overview`)
-    await page.getByText('No run yet').waitFor()
+    // The overview shows the organisation's dashboard, or "No run yet" before its first run finishes.
+    await page.getByTestId('overview-context').waitFor()
     const sections = await page.getByTestId('section-nav').locator('a').allInnerTexts()
     expect(sections.map(s => s.trim())).toEqual(['Overview', 'Portfolios', 'Sites', 'Runs', 'Assumptions', 'Capital plan', 'Calibration'])
     expect(await page.getByTestId('current-role').innerText()).toBe('Analyst')
