@@ -10,7 +10,8 @@ import { resolve } from 'node:path'
 import { parseArgs } from 'node:util'
 import pg from 'pg'
 import { defaultAssumptions } from '../shared/engine/assumptions'
-import { createDefaultAssumptions, createFleet } from '../tests/support/fleet'
+import { createDefaultAssumptions, insertSites } from '../tests/support/fleet'
+import { generatePortfolio } from './engine-portfolio'
 import { createMember, createOrganisation, TEST_PASSWORD } from '../tests/support/accounts'
 
 const { values } = parseArgs({ options: {
@@ -93,7 +94,8 @@ const { email } = await createMember(pool, org, 'analyst')
 const sites = Number(values.sites)
 const perSite = Number(values['tanks-per-site'])
 const g0 = performance.now()
-const portfolioId = await createFleet(pool, org, { sites, tanksPerSite: perSite, seed: 'bench', name: 'Bench fleet' })
+// The engine benchmark's demo-like generated portfolio (mixed materials, contents, shields, masts).
+const portfolioId = await insertSites(pool, org, 'Bench fleet', generatePortfolio(sites, sites * perSite))
 const assumptionVersionId = await createDefaultAssumptions(pool, org, defaultAssumptions)
 console.log(`generated ${sites} sites / ${sites * perSite} tanks in ${((performance.now() - g0) / 1000).toFixed(1)} s`)
 await pool.end()

@@ -93,6 +93,19 @@ export async function siteResults(runId: string) {
   return rows.map(r => ({ ...r, facts: r.facts as SiteFacts }))
 }
 
+/** The sites with the most expected fires in a run (served by the run × ignition index). */
+export async function topSites(runId: string, limit: number) {
+  return useDb().select({
+    siteId: runSiteResults.siteId, ignitionRate: runSiteResults.ignitionRate,
+    name: sql<string>`${runSiteSnapshots.facts} ->> 'name'`,
+    operatorName: sql<string>`${runSiteSnapshots.facts} ->> 'operatorName'`,
+    tanks: sql<number>`jsonb_array_length(${runSiteSnapshots.site} -> 'tanks')`,
+  }).from(runSiteResults)
+    .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))
+    .where(eq(runSiteResults.runId, runId))
+    .orderBy(desc(runSiteResults.ignitionRate), asc(runSiteResults.siteId)).limit(limit)
+}
+
 /** The tanks with the most expected fires in a run (served by the run × ignition index). */
 export async function topTanks(runId: string, limit: number) {
   return useDb().select({

@@ -56,6 +56,11 @@ describe('results of the demo run in a real browser', () => {
     expect(await waitForDrawnChart(page, page.getByTestId('event-bands-heatmap'))).toBeGreaterThan(2000)
     expect(await waitForDrawnChart(page, page.getByTestId('tank-heatmap'))).toBeGreaterThan(2000)
     await saveScreenshot(page, 'results-site')
+    // The tank's what-if opens compared with the stored run's figures for that tank.
+    await page.getByRole('link', { name: 'What-if' }).first().click()
+    await page.getByTestId('whatif-stored').waitFor()
+    expect(await page.getByTestId('whatif-stored').textContent()).toMatch(/stored run/)
+    await saveScreenshot(page, 'results-whatif-from-run')
     expect(guarded.outsideRequests).toEqual([])
   })
 

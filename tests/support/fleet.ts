@@ -1,6 +1,7 @@
 // Small generated fleets for run tests, written straight into the inventory tables.
 import type pg from 'pg'
 import seedrandom from 'seedrandom'
+import type { SiteInput } from '../../shared/engine/types'
 
 export interface FleetOptions { sites: number, tanksPerSite: number, seed?: string, name?: string }
 
@@ -40,4 +41,31 @@ export async function createDefaultAssumptions(pool: pg.Pool, organisationId: st
   const { rows: [set] } = await pool.query(`INSERT INTO assumption_sets (organisation_id, name) VALUES ($1, $2) RETURNING id`, [organisationId, `Set ${Math.random().toString(36).slice(2, 7)}`])
   const { rows: [version] } = await pool.query(`INSERT INTO assumption_set_versions (assumption_set_id, version, parameters) VALUES ($1, 1, $2) RETURNING id`, [set.id, JSON.stringify(parameters)])
   return version.id
+}
+
+/** Writes engine-shaped sites (e.g. bench/engine-portfolio.ts) into a new portfolio; returns its id. */
+export async function insertSites(pool: pg.Pool, organisationId: string, name: string, sites: SiteInput[]): Promise<string> {
+  const { rows: [portfolio] } = await pool.query(`INSERT INTO portfolios (organisation_id, name) VALUES ($1, $2) RETURNING id`, [organisationId, name])
+  for (const [k, s] of sites.entries()) {
+    const { rows: [site] } = await pool.query(
+      `INSERT INTO sites (organisation_id, external_id, name, operator_name, latitude_deg, longitude_deg, flash_density_per_km2_yr, insured_property_value)
+       VALUES ($1, $2, $3, 'Generated operator', $4, $5, $6, 1000000) RETURNING id`,
+      [organisationId, `${name}-${k}`, s.name, 31 + (k % 40) * 0.05, -103 + Math.floor(k / 40) * 0.05, s.flashDensity])
+    await pool.query(`INSERT INTO portfolio_sites (portfolio_id, site_id) VALUES ($1, $2)`, [portfolio.id, site.id])
+    for (const t of s.tanks) {
+      const { rows: [tank] } = await pool.query(
+        `INSERT INTO tanks (site_id, external_id, tag, material, height_m, diameter_m, x_m, y_m, contents, flammable_vapour_space, chemical_flash_point_c,
+          shield_rating_ka, vapour_control, replacement_value, contents_value, cleanup_cost, interruption_cost)
+         VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $14, $15, $16, $17) RETURNING id`,
+        [site.id, t.id, t.tag, t.material, t.heightM, t.diameterM, t.xM, t.yM, t.contents, t.flammableVapourSpace, t.chemicalFlashPointC ?? null,
+          t.shieldRatingKa, t.vapourControl, t.replacementValue, t.contentsValue, t.cleanupCost, t.interruptionCost])
+      for (const c of t.components) {
+        await pool.query(`INSERT INTO tank_components (tank_id, component_class, count, height_m) VALUES ($1, $2, $3, $4)`, [tank.id, c.componentClass, c.count, c.heightM])
+      }
+    }
+    for (const st of s.structures) {
+      await pool.query(`INSERT INTO site_structures (site_id, external_id, kind, x_m, y_m, height_m, radius_m) VALUES ($1, $2, $3, $4, $5, $6, $7)`, [site.id, st.id, st.kind, st.xM, st.yM, st.heightM, st.radiusM])
+    }
+  }
+  return portfolio.id
 }

@@ -2,27 +2,30 @@
 // value (map, sites × metrics heatmap, site table).
 import { runIdParams } from '~~/shared/schemas/runs'
 import { findSucceededRun, siteResults } from '~~/server/results/queries'
+import { cachedResult } from '~~/server/results/cache'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
   const { id } = await getValidatedRouterParams(event, runIdParams.parse)
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
-  const sites = await siteResults(run.id)
-  return {
-    currency: member.currency,
-    sites: sites.map(s => ({
-      siteId: s.siteId, name: s.facts.name, operatorName: s.facts.operatorName, externalId: s.facts.externalId,
-      latitude: s.facts.latitudeDeg, longitude: s.facts.longitudeDeg, insuredValue: s.facts.insuredValue, tanks: s.tanks,
-      radiusM: s.radiusM, lambdaPerYear: s.lambdaPerYear,
-      values: {
-        ignitionPerYear: s.ignitionRate, sparkingPerYear: s.sparkingRate, directPerYear: s.directRate,
-        averageAnnualLoss: s.expectedAnnualLoss, lossAt100Years: s.lossAt100,
-      },
-      intervals: {
-        ignitionPerYear: [s.ignitionLo, s.ignitionHi], sparkingPerYear: [s.sparkingLo, s.sparkingHi],
-        directPerYear: [s.directLo, s.directHi], averageAnnualLoss: [s.expectedAnnualLossLo, s.expectedAnnualLossHi],
-      },
-    })),
-  }
+  return cachedResult(`sites:${run.id}:${member.currency}`, async () => {
+    const sites = await siteResults(run.id)
+    return {
+      currency: member.currency,
+      sites: sites.map(s => ({
+        siteId: s.siteId, name: s.facts.name, operatorName: s.facts.operatorName, externalId: s.facts.externalId,
+        latitude: s.facts.latitudeDeg, longitude: s.facts.longitudeDeg, insuredValue: s.facts.insuredValue, tanks: s.tanks,
+        radiusM: s.radiusM, lambdaPerYear: s.lambdaPerYear,
+        values: {
+          ignitionPerYear: s.ignitionRate, sparkingPerYear: s.sparkingRate, directPerYear: s.directRate,
+          averageAnnualLoss: s.expectedAnnualLoss, lossAt100Years: s.lossAt100,
+        },
+        intervals: {
+          ignitionPerYear: [s.ignitionLo, s.ignitionHi], sparkingPerYear: [s.sparkingLo, s.sparkingHi],
+          directPerYear: [s.directLo, s.directHi], averageAnnualLoss: [s.expectedAnnualLossLo, s.expectedAnnualLossHi],
+        },
+      })),
+    }
+  })
 })
