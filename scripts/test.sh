@@ -21,4 +21,6 @@ if [ ! -x /usr/bin/chromium ]; then
 fi
 
 scripts/build-if-stale.sh
+echo "[test] type-checking (strict TypeScript, pages and server)…"
+node_modules/.bin/nuxt typecheck
 exec node_modules/.bin/vitest run "$@"

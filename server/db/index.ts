@@ -1,18 +1,20 @@
 // The single database accessor: one pg pool per process, wrapped by Drizzle.
-import { drizzle } from 'drizzle-orm/node-postgres'
+import { drizzle, type NodePgQueryResultHKT } from 'drizzle-orm/node-postgres'
+import type { PgDatabase } from 'drizzle-orm/pg-core'
 import pg from 'pg'
 import { databaseUrl } from './config'
 import * as schema from './schema'
 
 export { schema }
-export type Database = ReturnType<typeof createDatabase>
+/** The database or a transaction on it: helpers take either, so they can join the caller's transaction. */
+export type Database = PgDatabase<NodePgQueryResultHKT, typeof schema>
 
 function createDatabase(pool: pg.Pool) {
   return drizzle(pool, { schema, casing: 'snake_case' })
 }
 
 let pool: pg.Pool | undefined
-let database: Database | undefined
+let database: ReturnType<typeof createDatabase> | undefined
 
 export function usePool(): pg.Pool {
   if (!pool) {
@@ -23,7 +25,7 @@ export function usePool(): pg.Pool {
   return pool
 }
 
-export function useDb(): Database {
+export function useDb(): ReturnType<typeof createDatabase> {
   database ??= createDatabase(usePool())
   return database
 }

@@ -93,12 +93,8 @@ export const runChunks = pgTable('run_chunks', {
   completedAt: timestamp('completed_at', { withTimezone: true }),
 }, t => [primaryKey({ columns: [t.runId, t.chunkIndex] })])
 
-export const runTankResults = pgTable('run_tank_results', {
-  runId: uuid('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
-  siteId: uuid('site_id').notNull(),
-  tankId: uuid('tank_id').notNull(),
-  tag: text('tag').notNull(),
-  /** Annual frequencies (/yr) with 95 % intervals. */
+/** Annual frequencies (/yr) with 95 % intervals, and the expected annual loss with its interval. */
+const figureColumns = () => ({
   directRate: doublePrecision('direct_rate').notNull(),
   directLo: doublePrecision('direct_lo').notNull(),
   directHi: doublePrecision('direct_hi').notNull(),
@@ -108,10 +104,26 @@ export const runTankResults = pgTable('run_tank_results', {
   ignitionRate: doublePrecision('ignition_rate').notNull(),
   ignitionLo: doublePrecision('ignition_lo').notNull(),
   ignitionHi: doublePrecision('ignition_hi').notNull(),
-  /** Expected annual loss (organisation currency / yr) with its 95 % interval. */
+  /** Organisation currency per year. */
   expectedAnnualLoss: money('expected_annual_loss').notNull(),
   expectedAnnualLossLo: money('expected_annual_loss_lo').notNull(),
   expectedAnnualLossHi: money('expected_annual_loss_hi').notNull(),
+})
+
+/** Standard errors (frequency mode; year mode: from the counts), so roll-ups can combine them. */
+const standardErrorColumns = () => ({
+  directSe: doublePrecision('direct_se').notNull(),
+  sparkingSe: doublePrecision('sparking_se').notNull(),
+  ignitionSe: doublePrecision('ignition_se').notNull(),
+  expectedAnnualLossSe: doublePrecision('expected_annual_loss_se').notNull(),
+})
+
+export const runTankResults = pgTable('run_tank_results', {
+  runId: uuid('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
+  siteId: uuid('site_id').notNull(),
+  tankId: uuid('tank_id').notNull(),
+  tag: text('tag').notNull(),
+  ...figureColumns(),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   drivingComponentClass: text('driving_component_class'),
   converged: boolean('converged').notNull(),
@@ -127,23 +139,8 @@ export const runSiteResults = pgTable('run_site_results', {
   /** R of MODEL.md §1 and λ on that disc (flashes/yr). */
   radiusM: doublePrecision('radius_m').notNull(),
   lambdaPerYear: doublePrecision('lambda_per_year').notNull(),
-  directRate: doublePrecision('direct_rate').notNull(),
-  directLo: doublePrecision('direct_lo').notNull(),
-  directHi: doublePrecision('direct_hi').notNull(),
-  sparkingRate: doublePrecision('sparking_rate').notNull(),
-  sparkingLo: doublePrecision('sparking_lo').notNull(),
-  sparkingHi: doublePrecision('sparking_hi').notNull(),
-  ignitionRate: doublePrecision('ignition_rate').notNull(),
-  ignitionLo: doublePrecision('ignition_lo').notNull(),
-  ignitionHi: doublePrecision('ignition_hi').notNull(),
-  expectedAnnualLoss: money('expected_annual_loss').notNull(),
-  expectedAnnualLossLo: money('expected_annual_loss_lo').notNull(),
-  expectedAnnualLossHi: money('expected_annual_loss_hi').notNull(),
-  /** Standard errors (frequency mode; year mode: from the counts), so roll-ups can combine them. */
-  directSe: doublePrecision('direct_se').notNull(),
-  sparkingSe: doublePrecision('sparking_se').notNull(),
-  ignitionSe: doublePrecision('ignition_se').notNull(),
-  expectedAnnualLossSe: doublePrecision('expected_annual_loss_se').notNull(),
+  ...figureColumns(),
+  ...standardErrorColumns(),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   /** Year mode: the site's summary (AAL, return-period losses, TVaR) and its loss events (packed). */
   yearSummary: jsonb('year_summary'),
@@ -157,23 +154,8 @@ export const runSiteResults = pgTable('run_site_results', {
 
 export const runPortfolioResults = pgTable('run_portfolio_results', {
   runId: uuid('run_id').primaryKey().references(() => runs.id, { onDelete: 'cascade' }),
-  directRate: doublePrecision('direct_rate').notNull(),
-  directLo: doublePrecision('direct_lo').notNull(),
-  directHi: doublePrecision('direct_hi').notNull(),
-  sparkingRate: doublePrecision('sparking_rate').notNull(),
-  sparkingLo: doublePrecision('sparking_lo').notNull(),
-  sparkingHi: doublePrecision('sparking_hi').notNull(),
-  ignitionRate: doublePrecision('ignition_rate').notNull(),
-  ignitionLo: doublePrecision('ignition_lo').notNull(),
-  ignitionHi: doublePrecision('ignition_hi').notNull(),
-  expectedAnnualLoss: money('expected_annual_loss').notNull(),
-  expectedAnnualLossLo: money('expected_annual_loss_lo').notNull(),
-  expectedAnnualLossHi: money('expected_annual_loss_hi').notNull(),
-  /** Standard errors (frequency mode; year mode: from the counts), so roll-ups can combine them. */
-  directSe: doublePrecision('direct_se').notNull(),
-  sparkingSe: doublePrecision('sparking_se').notNull(),
-  ignitionSe: doublePrecision('ignition_se').notNull(),
-  expectedAnnualLossSe: doublePrecision('expected_annual_loss_se').notNull(),
+  ...figureColumns(),
+  ...standardErrorColumns(),
   /** Year mode: AAL, aggregate/occurrence losses at 10…1000 years, TVaR and the curves. */
   yearSummary: jsonb('year_summary'),
   computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
