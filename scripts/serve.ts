@@ -1,5 +1,6 @@
-// Runs the production server, one background worker and (unless real SMTP is configured) the local
-// mail fake, and stops them all cleanly on Ctrl-C. Used by `npm start` after set-up.
+// Runs the production server (or, with --dev, Nuxt's development server with hot reload), one
+// background worker and (unless real SMTP is configured) the local mail fake, and stops them all
+// cleanly on Ctrl-C. Used by `npm start` and `npm run dev` after set-up.
 import { spawn, type ChildProcess } from 'node:child_process'
 import { resolve } from 'node:path'
 import { settings } from '../server/settings'
@@ -60,7 +61,8 @@ if (settings.mail.captured) {
   console.log(`[start] mail fake listening on 127.0.0.1:${settings.mail.port} (messages appear under Admin → Mailbox)`)
 }
 run('worker', resolve(root, 'node_modules/.bin/tsx'), ['server/jobs/worker.ts'])
-run('server', process.execPath, ['.output/server/index.mjs'])
+if (process.argv.includes('--dev')) run('server', resolve(root, 'node_modules/.bin/nuxt'), ['dev', '--port', String(port)])
+else run('server', process.execPath, ['.output/server/index.mjs'])
 
 const url = `http://localhost:${port}`
 for (let i = 0; i < 120; i++) {
