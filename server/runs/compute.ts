@@ -4,7 +4,7 @@ import type { AssumptionSet } from '../../shared/engine/assumptions'
 import { parseSite } from '../../shared/engine/site-schema'
 import { simulateSiteFrequency } from '../../shared/engine/frequency'
 import { simulateSiteYears } from '../../shared/engine/years'
-import { Z95 } from '../../shared/engine/statistics'
+import { normalEstimate } from '../../shared/engine/statistics'
 import type { CountEstimate, Estimate, SiteInput } from '../../shared/engine/types'
 import type { YearLossSummary } from '../../shared/engine/exceedance'
 import type { PackedEvents } from './events-codec'
@@ -22,8 +22,8 @@ export interface SiteTask {
   years: number
 }
 
-/** A rate per year with its standard error and 95 % interval. */
-export interface Figure { rate: number, se: number, lo: number, hi: number }
+/** A rate per year with its standard error and 95 % interval (the engine's Estimate). */
+export type Figure = Estimate
 
 export interface TankComputation {
   tankId: string
@@ -53,16 +53,13 @@ export interface SiteComputation {
   eventBands: SiteEventBands
 }
 
-const fromEstimate = (e: Estimate): Figure => ({ rate: e.rate, se: e.se, lo: e.lo, hi: e.hi })
 
 /** A simulated count as a rate with the Garwood interval and the Poisson standard error √n / Y. */
 function fromCount(c: CountEstimate, years: number): Figure {
   return { rate: c.rate, se: Math.sqrt(c.count) / years, lo: c.lo, hi: c.hi }
 }
 
-function fromMean(m: { mean: number, se: number }): Figure {
-  return { rate: m.mean, se: m.se, lo: Math.max(0, m.mean - Z95 * m.se), hi: m.mean + Z95 * m.se }
-}
+const fromMean = (m: { mean: number, se: number }): Figure => normalEstimate(m.mean, m.se)
 
 /** Candidate flashes behind each site's event-band heatmap (a picture, not a headline figure). */
 const EVENT_BAND_SAMPLES = 40_000
@@ -84,15 +81,15 @@ function computeFrequency(task: SiteTask): SiteFigures {
     siteId: r.siteId,
     radiusM: r.radiusM,
     lambdaPerYear: r.lambdaPerYear,
-    direct: fromEstimate(r.totals.direct),
-    sparking: fromEstimate(r.totals.sparking),
-    ignition: fromEstimate(r.totals.ignition),
-    expectedAnnualLoss: fromEstimate(r.totals.expectedAnnualLoss),
+    direct: r.totals.direct,
+    sparking: r.totals.sparking,
+    ignition: r.totals.ignition,
+    expectedAnnualLoss: r.totals.expectedAnnualLoss,
     samples: r.samples,
     tanks: r.tanks.map(t => ({
       tankId: t.tankId, tag: t.tag,
-      direct: fromEstimate(t.direct), sparking: fromEstimate(t.sparking), ignition: fromEstimate(t.ignition),
-      expectedAnnualLoss: fromEstimate(t.expectedAnnualLoss),
+      direct: t.direct, sparking: t.sparking, ignition: t.ignition,
+      expectedAnnualLoss: t.expectedAnnualLoss,
       samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
     })),
     yearSummary: null,
@@ -104,11 +101,7 @@ function computeYears(task: SiteTask): SiteFigures {
   const r = simulateSiteYears(task.site, task.assumptions, { runSeed: task.runSeed, years: task.years })
   const Y = r.years
   const sumCounts = (pick: (t: typeof r.tanks[number]) => CountEstimate) => r.tanks.reduce((n, t) => n + pick(t).count, 0)
-  const siteCount = (n: number): Figure => {
-    const se = Math.sqrt(n) / Y
-    const rate = n / Y
-    return { rate, se, lo: Math.max(0, rate - Z95 * se), hi: rate + Z95 * se }
-  }
+  const siteCount = (n: number): Figure => normalEstimate(n / Y, Math.sqrt(n) / Y)
   return {
     siteId: r.siteId,
     radiusM: r.radiusM,

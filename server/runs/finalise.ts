@@ -6,7 +6,8 @@ import { useDb } from '../db'
 import { runPortfolioResults, runs, runSiteResults } from '../db/schema'
 import type { Figure } from './compute'
 import { decodeEvents } from './events-codec'
-import { sumCounts, sumFigures } from './figures'
+import { sumCounts } from './figures'
+import { normalEstimate, sumEstimates } from '../../shared/engine/statistics'
 
 type SiteRow = typeof runSiteResults.$inferSelect
 
@@ -48,23 +49,22 @@ export async function finaliseRun(runId: string): Promise<boolean> {
     const rows = await tx.select().from(runSiteResults).where(eq(runSiteResults.runId, runId)).orderBy(asc(runSiteResults.siteId))
     let values
     if (run.mode === 'frequency') {
-      const eal = sumFigures(rows.map(lossFigure))
+      const eal = sumEstimates(rows.map(lossFigure))
       values = {
-        direct: sumFigures(rows.map(r => figure(r, 'direct'))),
-        sparking: sumFigures(rows.map(r => figure(r, 'sparking'))),
-        ignition: sumFigures(rows.map(r => figure(r, 'ignition'))),
+        direct: sumEstimates(rows.map(r => figure(r, 'direct'))),
+        sparking: sumEstimates(rows.map(r => figure(r, 'sparking'))),
+        ignition: sumEstimates(rows.map(r => figure(r, 'ignition'))),
         eal,
         yearSummary: null,
       }
     } else {
       const table = portfolioYearTable(rows, run.years)
       const summary = withIntervals(summariseYearLosses(table.yearLosses, table.yearMaxEventLoss), table)
-      const se = summary.averageAnnualLossSe
       values = {
         direct: sumCounts(rows.map(r => figure(r, 'direct')), run.years),
         sparking: sumCounts(rows.map(r => figure(r, 'sparking')), run.years),
         ignition: sumCounts(rows.map(r => figure(r, 'ignition')), run.years),
-        eal: { rate: summary.averageAnnualLoss, se, lo: Math.max(0, summary.averageAnnualLoss - 1.959963984540054 * se), hi: summary.averageAnnualLoss + 1.959963984540054 * se },
+        eal: normalEstimate(summary.averageAnnualLoss, summary.averageAnnualLossSe),
         yearSummary: summary,
       }
     }

@@ -3,6 +3,7 @@ import ExcelJS from 'exceljs'
 import { defaultAssumptions } from '../../shared/engine/assumptions'
 import { createOrganisation, memberClient, type Client } from '../support/accounts'
 import { testPool } from '../support/db'
+import { waitForRun } from '../support/runs'
 import { createDefaultAssumptions, createFleet } from '../support/fleet'
 
 const pool = testPool()
@@ -12,14 +13,6 @@ let viewer: Client
 let runId: string
 const HOSTILE_NAME = '=HYPERLINK("http://example.invalid","open me")'
 
-async function waitForRun(client: Client, id: string) {
-  for (let i = 0; i < 600; i++) {
-    const run = await (await client.get(`/api/runs/${id}`)).json()
-    if (!['queued', 'running'].includes(run.state)) return run
-    await new Promise(r => setTimeout(r, 300))
-  }
-  throw new Error('run did not finish')
-}
 
 beforeAll(async () => {
   const org = await createOrganisation(pool, 'Results Test Insurer', 'insurer')

@@ -6,6 +6,7 @@ import { defaultAssumptions } from '../../shared/engine/assumptions'
 import { createOrganisation, memberClient, type Client } from '../support/accounts'
 import { root } from '../support/app-process'
 import { testPool } from '../support/db'
+import { waitForRun } from '../support/runs'
 import { createDefaultAssumptions, createFleet } from '../support/fleet'
 import { spawnWorker, stopWorker, type WorkerProcess } from '../support/workers'
 
@@ -19,15 +20,6 @@ let versionId: string
 // Small, fast runs: few samples per tank and a loose target keep each run to seconds.
 const quick = { mode: 'frequency', targetRse: 0.2, maxSamplesPerTank: 4000 } as const
 
-async function waitForRun(client: Client, id: string, timeoutMs = 180_000) {
-  const started = Date.now()
-  for (;;) {
-    const run = await (await client.get(`/api/runs/${id}`)).json()
-    if (!['queued', 'running'].includes(run.state)) return run
-    if (Date.now() - started > timeoutMs) throw new Error(`run ${id} still ${run.state} after ${timeoutMs} ms`)
-    await new Promise(r => setTimeout(r, 300))
-  }
-}
 
 async function start(client: Client, body: Record<string, unknown>) {
   const res = await client.post('/api/runs', { portfolioId, assumptionVersionId: versionId, ...quick, ...body })
