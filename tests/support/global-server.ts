@@ -8,9 +8,11 @@ export default async function setup(project: TestProject) {
   const stop = await startApp({ ...SERVER_TEST, seedDemo: false })
   project.provide('baseUrl', `http://localhost:${SERVER_TEST.port}`)
   project.provide('dbName', SERVER_TEST.dbName)
+  project.provide('appPort', SERVER_TEST.port)
+  project.provide('mailPort', SERVER_TEST.mailPort)
   return stop
 }
 
 declare module 'vitest' {
-  export interface ProvidedContext { baseUrl: string, dbName: string }
+  export interface ProvidedContext { baseUrl: string, dbName: string, appPort: number, mailPort: number }
 }

@@ -2,14 +2,16 @@
 import { spawn, type ChildProcess } from 'node:child_process'
 import { resolve } from 'node:path'
 import { inject } from 'vitest'
-import { root } from './app-process'
+import { appEnv, root } from './app-process'
 
 export interface WorkerProcess { child: ChildProcess, output: () => string, ready: Promise<void> }
 
 export function spawnWorker(extraEnv: Record<string, string> = {}): WorkerProcess {
   const child = spawn(resolve(root, 'node_modules/.bin/tsx'), ['server/jobs/worker.ts'], {
     cwd: root,
-    env: { ...process.env, STORMLEDGER_DB_NAME: inject('dbName'), DATABASE_URL: '', STORMLEDGER_CHUNK_EXPIRE_SECONDS: '30', STORMLEDGER_QUEUE_MAINTENANCE_SECONDS: '2', ...extraEnv },
+    // The same settings as the test app's own worker (database, mail fake, chunk expiry), so an extra
+    // worker that picks up any job — e-mail included — does what the app's worker would.
+    env: { ...appEnv({ dbName: inject('dbName'), port: inject('appPort'), mailPort: inject('mailPort'), seedDemo: false }), ...extraEnv },
     stdio: ['ignore', 'pipe', 'pipe'],
   })
   let out = ''
