@@ -5,7 +5,9 @@ export default defineNuxtConfig({
   compatibilityDate: '2026-11-01',
   srcDir: '.',
   dir: { app: 'app' },
-  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils'],
+  modules: ['@pinia/nuxt', '@nuxtjs/tailwindcss', 'nuxt-auth-utils', '@nuxt/eslint'],
+  // The linter's project rules live in eslint.config.mjs; the module generates the Nuxt-aware base.
+  eslint: { config: { stylistic: false } },
   css: ['@fontsource/lato/400.css', '@fontsource/lato/700.css', '@fontsource/lato/400-italic.css', '~/assets/css/main.css'],
   devtools: { enabled: false },
   telemetry: false,

@@ -23,4 +23,6 @@ fi
 scripts/build-if-stale.sh
 echo "[test] type-checking (strict TypeScript, pages and server)…"
 node_modules/.bin/nuxt typecheck
+echo "[test] linting (eslint, the project's rules in eslint.config.mjs)…"
+node_modules/.bin/eslint .
 exec node_modules/.bin/vitest run "$@"

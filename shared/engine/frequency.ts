@@ -3,9 +3,8 @@
 // Neyman allocation in batches, stopping at a target relative standard error or a sample cap.
 import type { ComponentClass, Estimate, SiteInput } from './types'
 import type { AssumptionSet } from './assumptions'
-import type { PreparedSite } from './kernel'
+import type { ArcScratch, PreparedSite } from './kernel'
 import type { UniformStream } from './random'
-import type { ArcScratch } from './kernel'
 import { attachFlash, canSpark, classSparkProbabilityLn, componentClassOf, createArcScratch, directCaptureFraction, prepareSite, strikeRadius, tankSparkGivenAttachment } from './kernel'
 import { siteRadius, tankRelevantRadius } from './reach'
 import { createStream } from './random'

@@ -2,6 +2,7 @@
 // for the server and browser test projects. Each project has its own database and ports.
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process'
 import { resolve } from 'node:path'
+import { assertNoProcessOutlives, processMarker } from './processes'
 
 export const root = resolve(import.meta.dirname, '../..')
 const tsx = resolve(root, 'node_modules/.bin/tsx')
@@ -16,6 +17,7 @@ export interface AppOptions { dbName: string, port: number, mailPort: number, se
 export function appEnv(o: AppOptions): NodeJS.ProcessEnv {
   return {
     ...process.env,
+    ...processMarker(o.dbName),
     STORMLEDGER_DB_NAME: o.dbName,
     DATABASE_URL: '',
     PORT: String(o.port),
@@ -52,9 +54,11 @@ export async function startApp(o: AppOptions): Promise<() => Promise<void>> {
   }
   process.env.STORMLEDGER_TEST_BASE_URL = base
   return async () => {
-    if (child.exitCode !== null) return
-    const exited = new Promise(r => child.once('exit', r))
-    child.kill('SIGTERM')
-    await exited
+    if (child.exitCode === null) {
+      const exited = new Promise(r => child.once('exit', r))
+      child.kill('SIGTERM')
+      await exited
+    }
+    await assertNoProcessOutlives(o.dbName)
   }
 }

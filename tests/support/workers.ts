@@ -13,6 +13,8 @@ export function spawnWorker(extraEnv: Record<string, string> = {}): WorkerProces
     // worker that picks up any job — e-mail included — does what the app's worker would.
     env: { ...appEnv({ dbName: inject('dbName'), port: inject('appPort'), mailPort: inject('mailPort'), seedDemo: false }), ...extraEnv },
     stdio: ['ignore', 'pipe', 'pipe'],
+    // Its own process group, so that a hard kill reaches the Node process that tsx starts as its child.
+    detached: true,
   })
   let out = ''
   child.stdout?.on('data', (d: Buffer) => { out += d.toString() })
@@ -29,6 +31,9 @@ export function spawnWorker(extraEnv: Record<string, string> = {}): WorkerProces
 export async function stopWorker(w: WorkerProcess, signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
   if (w.child.exitCode !== null || w.child.signalCode !== null) return
   const exited = new Promise(r => w.child.once('exit', r))
-  w.child.kill(signal)
+  // tsx passes SIGTERM on to the worker and waits for it; SIGKILL cannot be passed on, so it goes to
+  // the whole group (tsx and the worker), as when a machine dies.
+  if (signal === 'SIGKILL') process.kill(-w.child.pid!, 'SIGKILL')
+  else w.child.kill(signal)
   await exited
 }

@@ -2,7 +2,7 @@
 // calibrating and applying results are for analysts and admins (PRODUCT.md roles).
 import { gzipSync } from 'node:zlib'
 import type pg from 'pg'
-import type { MatrixModule, RoleName, RouteRule } from './types'
+import type { RoleName, RouteRule } from './types'
 
 const editors: RoleName[] = ['admin', 'analyst']
 const everyone: RoleName[] = ['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer']
