@@ -7,6 +7,7 @@ import type { JobName, JobPayloads } from './types'
 export const queueOptions: Record<JobName, Omit<PgBoss.Queue, 'name'>> = {
   // Short first retries: a message refused during a database blip goes out seconds later.
   'mail.send': { retryLimit: 8, retryDelay: 2, retryBackoff: true, expireInSeconds: 60 },
+  'auth.password-reset': { retryLimit: 5, retryDelay: 2, retryBackoff: true, expireInSeconds: 60 },
   // A chunk whose worker died is handed to another worker once it expires.
   'run.chunk': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },
   'scenario.site': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },

@@ -1,6 +1,7 @@
 // The explicit registry: which handler works which queue, with what polling.
 import type PgBoss from 'pg-boss'
 import { handleMailSend } from './mail-send'
+import { handlePasswordReset } from './password-reset'
 import { handleRunChunk } from './run-chunk'
 import { handleScenarioSite } from './scenario-site'
 import { threadCount } from '../runs/thread-pool'
@@ -12,6 +13,7 @@ type Registry = { [K in JobName]: { handler: Handler<JobPayloads[K]>, work: PgBo
 
 export const jobRegistry: Registry = {
   'mail.send': { handler: handleMailSend, work: { pollingIntervalSeconds: 1, batchSize: 5 }, concurrency: () => 1 },
+  'auth.password-reset': { handler: handlePasswordReset, work: { pollingIntervalSeconds: 1, batchSize: 5 }, concurrency: () => 1 },
   // One chunk per core at a time; the chunk's sites spread over the thread pool.
   'run.chunk': { handler: handleRunChunk, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount },
   // One site per core at a time (capital planning's scenario evaluations).

@@ -1,6 +1,9 @@
 // Every background job's name and payload, in one map.
 export interface JobPayloads {
-  'mail.send': { to: string, subject: string, text: string }
+  /** organisationId: the organisation that sent it, or null for mail that belongs to the addressee alone. */
+  'mail.send': { to: string, subject: string, text: string, organisationId?: string | null }
+  /** A password-reset request, worked after the answer so known and unknown addresses answer alike. */
+  'auth.password-reset': { email: string, ipAddress: string | null }
   'run.chunk': { runId: string, chunkIndex: number }
   'scenario.site': { evaluationId: string, siteId: string }
 }

@@ -4,6 +4,7 @@ import { simpleParser } from 'mailparser'
 import { SMTPServer } from 'smtp-server'
 import { useDb } from '../db/index'
 import { capturedMail } from '../db/schema'
+import { SENDER_HEADER } from './transport'
 
 export async function startMailFake(port: number): Promise<SMTPServer> {
   const server = new SMTPServer({
@@ -30,9 +31,18 @@ export async function startMailFake(port: number): Promise<SMTPServer> {
   return server
 }
 
+const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
+
+/** The sending organisation from the app's header; anything else counts as personal mail. */
+function senderOrganisation(value: unknown): string | null {
+  return typeof value === 'string' && UUID.test(value.trim()) ? value.trim().toLowerCase() : null
+}
+
 async function storeMessage(raw: Buffer, to: string[], from: string): Promise<void> {
   const parsed = await simpleParser(raw)
+  const organisationId = senderOrganisation(parsed.headers.get(SENDER_HEADER.toLowerCase()))
   const insert = () => useDb().insert(capturedMail).values({
+    organisationId,
     fromAddress: from,
     toAddresses: to.join(', '),
     subject: parsed.subject ?? '(no subject)',

@@ -6,7 +6,12 @@ export interface OutgoingMail {
   to: string
   subject: string
   text: string
+  /** The sending organisation, or null/absent for personal mail (see server/utils/mail.ts). */
+  organisationId?: string | null
 }
+
+/** Tells the local mail fake which organisation sent a message; never sent to real SMTP. */
+export const SENDER_HEADER = 'X-Stormledger-Organisation'
 
 let transporter: Transporter | undefined
 
@@ -26,5 +31,6 @@ function useTransporter(): Transporter {
 }
 
 export async function sendMail(mail: OutgoingMail): Promise<void> {
-  await useTransporter().sendMail({ from: settings.mail.from, to: mail.to, subject: mail.subject, text: mail.text })
+  const headers = settings.mail.captured && mail.organisationId ? { [SENDER_HEADER]: mail.organisationId } : undefined
+  await useTransporter().sendMail({ from: settings.mail.from, to: mail.to, subject: mail.subject, text: mail.text, headers })
 }

@@ -30,5 +30,5 @@ export async function notifyRunEnded(runId: string): Promise<void> {
   if (!row?.email) return
   const [portfolio] = await db.select().from(runPortfolioResults).where(eq(runPortfolioResults.runId, runId))
   const message = runEndedMessage({ run: row.run, recipientName: row.name ?? '', portfolio: portfolio ?? null })
-  await enqueue('mail.send', { to: row.email, ...message })
+  await enqueue('mail.send', { to: row.email, ...message, organisationId: row.run.organisationId })
 }

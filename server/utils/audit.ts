@@ -16,7 +16,8 @@ export interface AuditEntry {
 }
 
 /** Records one change. Pass the transaction so the record commits (or rolls back) with the change. */
-export async function recordAudit(entry: AuditEntry, options: { tx?: Executor, event?: H3Event } = {}): Promise<void> {
+/** `ipAddress` stands in for `event` in background jobs that act on a request's behalf. */
+export async function recordAudit(entry: AuditEntry, options: { tx?: Executor, event?: H3Event, ipAddress?: string | null } = {}): Promise<void> {
   const executor = options.tx ?? useDb()
   await executor.insert(auditEvents).values({
     organisationId: entry.organisationId,
@@ -26,6 +27,6 @@ export async function recordAudit(entry: AuditEntry, options: { tx?: Executor, e
     entityId: entry.entityId ?? null,
     before: entry.before ?? null,
     after: entry.after ?? null,
-    ipAddress: options.event ? getRequestIP(options.event, { xForwardedFor: false }) ?? null : null,
+    ipAddress: options.event ? getRequestIP(options.event, { xForwardedFor: false }) ?? null : options.ipAddress ?? null,
   })
 }

@@ -1,9 +1,10 @@
 // The one authorisation guard every API route calls first.
-import { and, asc, eq } from 'drizzle-orm'
+import { and, asc, eq, gt, isNull } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import type { UserSession } from '#auth-utils'
 import { useDb } from '../db'
-import { memberships, organisations, users, type OrganisationKind, type Role } from '../db/schema'
+import { memberships, organisations, userSessions, users, type OrganisationKind, type Role } from '../db/schema'
+import { openSessionRecord, revokeSession, sessionStartCutoff, touchSession } from './sessions'
 
 export interface Member {
   user: { id: string, email: string, name: string }
@@ -12,6 +13,8 @@ export interface Member {
   organisationKind: OrganisationKind
   currency: string
   role: Role
+  /** The user_sessions row of the request's session. */
+  sessionId: string
 }
 
 /** Role groups used across routes (PRODUCT.md "Users and roles"). */
@@ -25,18 +28,22 @@ export const ROLES = {
 } as const satisfies Record<string, readonly Role[]>
 
 /**
- * The member a session stands for, read from the database; null when the session no longer holds
- * (membership removed, account disabled, or the password was reset or changed since it began).
+ * The member a session stands for, read from the database in one query; null when the session no
+ * longer holds: its record was revoked (sign-out, sign out everywhere) or is older than the session
+ * lifetime, the membership was removed, the account disabled, or the password was reset or changed
+ * since it began.
  */
 export async function memberOfSession(session: UserSession): Promise<Member | null> {
-  if (!session.user?.id || !session.organisationId) return null
+  if (!session.user?.id || !session.organisationId || !session.sessionId) return null
   const [row] = await useDb()
-    .select({ role: memberships.role, sessionVersion: users.sessionVersion, disabled: users.disabled, email: users.email, name: users.name, organisationName: organisations.name, organisationKind: organisations.kind, currency: organisations.currency })
-    .from(memberships)
-    .innerJoin(users, eq(users.id, memberships.userId))
+    .select({ role: memberships.role, sessionVersion: users.sessionVersion, disabled: users.disabled, email: users.email, name: users.name, organisationName: organisations.name, organisationKind: organisations.kind, currency: organisations.currency, lastSeenAt: userSessions.lastSeenAt })
+    .from(userSessions)
+    .innerJoin(users, eq(users.id, userSessions.userId))
+    .innerJoin(memberships, and(eq(memberships.userId, users.id), eq(memberships.organisationId, session.organisationId)))
     .innerJoin(organisations, eq(organisations.id, memberships.organisationId))
-    .where(and(eq(memberships.userId, session.user.id), eq(memberships.organisationId, session.organisationId)))
+    .where(and(eq(userSessions.id, session.sessionId), eq(userSessions.userId, session.user.id), isNull(userSessions.revokedAt), gt(userSessions.createdAt, sessionStartCutoff())))
   if (!row || row.disabled || row.sessionVersion !== session.sessionVersion) return null
+  await touchSession(session.sessionId, row.lastSeenAt)
   return {
     user: { id: session.user.id, email: row.email, name: row.name },
     organisationId: session.organisationId,
@@ -44,6 +51,7 @@ export async function memberOfSession(session: UserSession): Promise<Member | nu
     organisationKind: row.organisationKind,
     currency: row.currency,
     role: row.role,
+    sessionId: session.sessionId,
   }
 }
 
@@ -79,13 +87,24 @@ export async function membershipsOf(userId: string) {
     .orderBy(asc(memberships.createdAt), asc(organisations.name))
 }
 
-/** Starts (or replaces) the session of a person in one of their organisations. */
-export async function startMemberSession(event: H3Event, user: { id: string, email: string, name: string, sessionVersion: number }, membership: { organisationId: string, role: Role }) {
+/**
+ * Seals the session cookie of a person in one of their organisations. Without `sessionId` a new
+ * session record is opened (a sign-in) and the browser's previous session, if any, is revoked;
+ * with it, the same session carries on (switching organisation, after a password change).
+ */
+export async function startMemberSession(event: H3Event, user: { id: string, email: string, name: string, sessionVersion: number }, membership: { organisationId: string, role: Role }, sessionId?: string) {
+  let id = sessionId
+  if (!id) {
+    const previous = (await getUserSession(event)).sessionId
+    if (previous) await revokeSession(previous)
+    id = await openSessionRecord(event, user.id)
+  }
   await replaceUserSession(event, {
     user: { id: user.id, email: user.email, name: user.name },
     organisationId: membership.organisationId,
     role: membership.role,
     sessionVersion: user.sessionVersion,
+    sessionId: id,
     loggedInAt: Date.now(),
   })
 }

@@ -1,5 +1,6 @@
 // Invitations: an admin invites an address with a role; the e-mailed link works once, for 7 days.
-// Accepting creates the account (name and password) or adds the membership to an existing one.
+// Accepting creates the account (name and password) or, with that person's consent (signed in, or
+// their password), adds the membership to an existing one.
 import { and, desc, eq, isNull } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import { useDb } from '../db'
@@ -35,7 +36,7 @@ async function mailInvitation(member: Member, invitation: Invitation, token: str
     invitedBy: member.user.name,
     link: appLink(`/invitations/${token}`),
     expiresAt: invitation.expiresAt,
-  }))
+  }), { organisationId: invitation.organisationId })
 }
 
 function publicView(i: Invitation) {
@@ -110,27 +111,57 @@ async function usableInvitation(token: string, executor: Pick<ReturnType<typeof 
   return row
 }
 
-export async function describeInvitation(token: string) {
+/** The person signed in on this request (any organisation), or null. */
+async function signedInUserId(event: H3Event): Promise<string | null> {
+  const session = await getUserSession(event)
+  if (!session.user?.id) return null
+  return (await memberOfSession(session))?.user.id ?? null
+}
+
+export async function describeInvitation(event: H3Event, token: string) {
   const db = useDb()
   const { invitation, organisationName } = await usableInvitation(token, db, false)
   const [user] = await db.select({ id: users.id }).from(users).where(eq(users.email, invitation.email))
-  return { email: invitation.email, role: invitation.role, organisationName, expiresAt: invitation.expiresAt, accountExists: Boolean(user) }
+  const signedIn = await signedInUserId(event)
+  return {
+    email: invitation.email, role: invitation.role, organisationName, expiresAt: invitation.expiresAt,
+    accountExists: Boolean(user),
+    /** Signed in as the invited address: accepting needs only the click. */
+    signedInAsInvitee: Boolean(user && signedIn === user.id),
+    /** Signed in as somebody else: that person cannot accept it. */
+    signedInAsOther: Boolean(signedIn && signedIn !== user?.id),
+  }
 }
 
-/** Accepts once: creates the account or adds the membership. Returns where the person stands. */
-export async function acceptInvitation(event: H3Event, token: string, input: { name?: string, password?: string }) {
-  return useDb().transaction(async (tx) => {
+const SIGN_IN_TO_ACCEPT = 'You already have an account: sign in as the invited address (or give its password here) to accept.'
+
+/**
+ * Accepts once. A new address creates its account (name and password). An existing account is
+ * added only with that person's consent: signed in as the invited address on this request, or
+ * giving its current password (counted by sign-in throttling), which then signs them in.
+ */
+export async function acceptInvitation(event: H3Event, token: string, input: { name?: string, password?: string, currentPassword?: string }) {
+  const signedIn = await signedInUserId(event)
+  const result = await useDb().transaction(async (tx) => {
     const { invitation, organisationName } = await usableInvitation(token, tx, true)
     let [user] = await tx.select().from(users).where(eq(users.email, invitation.email))
     const created = !user
+    let signInNow = false
     if (!user) {
+      if (signedIn) throw createError({ statusCode: 403, statusMessage: 'This invitation is for another address. Sign out first to create that account.' })
       if (!input.name) throw createError({ statusCode: 400, statusMessage: 'Enter your name.', data: { fieldErrors: { name: ['Enter your name.'] } } })
       if (!input.password) throw createError({ statusCode: 400, statusMessage: 'Choose a password.', data: { fieldErrors: { password: ['Choose a password.'] } } })
       assertPasswordAllowed(input.password, invitation.email)
       ;[user] = await tx.insert(users).values({ email: invitation.email, name: input.name, passwordHash: await hashPassword(input.password), lastOrganisationId: invitation.organisationId }).returning()
     } else {
+      if (signedIn && signedIn !== user.id) throw createError({ statusCode: 403, statusMessage: 'This invitation is for another address. Sign out, then sign in as the invited address to accept it.' })
+      if (!signedIn) {
+        if (!input.currentPassword) throw createError({ statusCode: 401, statusMessage: SIGN_IN_TO_ACCEPT, data: { fieldErrors: { currentPassword: ['Enter your password to accept.'] } } })
+        await assertPasswordOfInvitee(event, user, input.currentPassword)
+        signInNow = true
+      }
       // The next sign-in lands in the organisation just joined.
-      await tx.update(users).set({ lastOrganisationId: invitation.organisationId }).where(eq(users.id, user.id))
+      ;[user] = await tx.update(users).set({ lastOrganisationId: invitation.organisationId }).where(eq(users.id, user.id)).returning()
     }
     const [membership] = await tx.insert(memberships).values({ organisationId: invitation.organisationId, userId: user!.id, role: invitation.role })
       .onConflictDoNothing().returning()
@@ -139,6 +170,23 @@ export async function acceptInvitation(event: H3Event, token: string, input: { n
       organisationId: invitation.organisationId, userId: user!.id, action: 'accept_invitation', entity: 'membership',
       entityId: membership?.id ?? null, after: { email: invitation.email, role: invitation.role, accountCreated: created },
     }, { tx, event })
-    return { ok: true, email: invitation.email, organisationName, accountCreated: created }
+    return { user: user!, organisationId: invitation.organisationId, role: invitation.role, organisationName, created, signInNow }
   })
+  const session = await getUserSession(event)
+  if (result.signInNow || signedIn) {
+    // Work in the organisation just joined: a new session after a password, the same one otherwise.
+    await startMemberSession(event, result.user, { organisationId: result.organisationId, role: result.role }, result.signInNow ? undefined : session.sessionId)
+  }
+  return { ok: true, email: result.user.email, organisationName: result.organisationName, accountCreated: result.created, signedIn: result.signInNow || Boolean(signedIn) }
+}
+
+/** The existing account's password, checked like a sign-in (throttled, failures recorded). */
+async function assertPasswordOfInvitee(event: H3Event, user: typeof users.$inferSelect, password: string) {
+  const address = clientAddress(event)
+  await assertSignInAllowed(event, user.email, address)
+  if (user.disabled || !(await checkPassword(user.passwordHash, password))) {
+    await recordSignInAttempt(user.email, address, false)
+    throw createError({ statusCode: 401, statusMessage: 'That password does not match the invited account.', data: { fieldErrors: { currentPassword: ['That password does not match the invited account.'] } } })
+  }
+  await recordSignInAttempt(user.email, address, true)
 }

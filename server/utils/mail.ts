@@ -4,8 +4,14 @@ import { enqueue } from '../jobs/queue'
 import type { MailContent } from '../mail/templates'
 import { settings } from '../settings'
 
-export async function queueMail(to: string, content: MailContent): Promise<void> {
-  await enqueue('mail.send', { to, subject: content.subject, text: content.text })
+/**
+ * Who a message is from: an organisation (invitations, run notices — its admins see it in the
+ * Mailbox) or 'personal' (password reset, password changed — only the addressee ever sees it).
+ */
+export type MailSender = { organisationId: string } | 'personal'
+
+export async function queueMail(to: string, content: MailContent, sender: MailSender): Promise<void> {
+  await enqueue('mail.send', { to, subject: content.subject, text: content.text, organisationId: sender === 'personal' ? null : sender.organisationId })
 }
 
 /** An absolute link into the app, for e-mails (STORMLEDGER_PUBLIC_URL). */

@@ -1,22 +1,31 @@
-// The admin Mailbox: what the local SMTP fake caught for the organisation's people.
-import { sql } from 'drizzle-orm'
+// What the local SMTP fake caught, in two views that never overlap wrongly:
+// - the admin Mailbox: only mail the organisation itself sent (invitations, run notices), whoever
+//   it went to; personal mail (password reset, password changed) and mail another organisation sent
+//   to the same people never appear there;
+// - My mail: every message to the signed-in person's own address, for the demo and tests.
+import { desc, eq, sql } from 'drizzle-orm'
 import { useDb } from '../db'
+import { capturedMail } from '../db/schema'
 
 export interface MailboxMessage { id: string, from: string, to: string, subject: string, body: string, receivedAt: string }
 
+const columns = { id: capturedMail.id, from: capturedMail.fromAddress, to: capturedMail.toAddresses, subject: capturedMail.subject, body: capturedMail.textBody, receivedAt: capturedMail.receivedAt }
+
+function shape(rows: { id: string, from: string, to: string, subject: string, body: string, receivedAt: Date }[]): MailboxMessage[] {
+  return rows.map(r => ({ ...r, receivedAt: r.receivedAt.toISOString() }))
+}
+
 export async function readMailbox(organisationId: string, limit = 200): Promise<MailboxMessage[]> {
-  const result = await useDb().execute<{ id: string, from_address: string, to_addresses: string, subject: string, text_body: string, received_at: string | Date }>(sql`
-    SELECT c.id, c.from_address, c.to_addresses, c.subject, c.text_body, c.received_at
-    FROM captured_mail c
-    WHERE EXISTS (
-      SELECT 1 FROM unnest(string_to_array(lower(c.to_addresses), ', ')) AS rcpt(address)
-      WHERE rcpt.address IN (
-        SELECT u.email FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.organisation_id = ${organisationId}
-        UNION
-        SELECT i.email FROM invitations i WHERE i.organisation_id = ${organisationId}
-      )
-    )
-    ORDER BY c.received_at DESC
-    LIMIT ${limit}`)
-  return result.rows.map(r => ({ id: r.id, from: r.from_address, to: r.to_addresses, subject: r.subject, body: r.text_body, receivedAt: new Date(r.received_at).toISOString() }))
+  const rows = await useDb().select(columns).from(capturedMail)
+    .where(eq(capturedMail.organisationId, organisationId))
+    .orderBy(desc(capturedMail.receivedAt)).limit(limit)
+  return shape(rows)
+}
+
+/** Messages whose recipients include `email` (the fake stores them joined by ", "). */
+export async function readOwnMail(email: string, limit = 100): Promise<MailboxMessage[]> {
+  const rows = await useDb().select(columns).from(capturedMail)
+    .where(sql`lower(${email}) = ANY (string_to_array(lower(${capturedMail.toAddresses}), ', '))`)
+    .orderBy(desc(capturedMail.receivedAt)).limit(limit)
+  return shape(rows)
 }

@@ -1,27 +1,19 @@
-// Password reset: single-use tokens valid for one hour. Requests for unknown addresses do the same
-// visible thing as for known ones (nothing is said either way); a confirmed reset ends every session.
-import { and, count, eq, gt, isNull, sql } from 'drizzle-orm'
+// Password reset: single-use tokens valid for one hour. A request is queued and answered at once,
+// whether or not the address has an account; a confirmed reset ends every session.
+import { and, eq, isNull, sql } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import { useDb } from '../db'
 import { passwordResetTokens, users } from '../db/schema'
-import { passwordChangedMail, passwordResetMail } from '../mail/templates'
+import { enqueue } from '../jobs/queue'
+import { passwordChangedMail } from '../mail/templates'
 
-/** At most this many reset messages per account per hour, so the form cannot be used to flood an inbox. */
-const MAX_RESET_MAILS_PER_HOUR = 5
-
+/**
+ * Queues the request and returns: the lookup, the token and the mail happen in the
+ * 'auth.password-reset' job (server/auth/password-reset-request.ts), so a known and an unknown
+ * address take the same path and the same time here.
+ */
 export async function requestPasswordReset(event: H3Event, email: string): Promise<void> {
-  const db = useDb()
-  const [user] = await db.select().from(users).where(eq(users.email, email))
-  if (!user || user.disabled) return
-  const [recent] = await db.select({ n: count() }).from(passwordResetTokens)
-    .where(and(eq(passwordResetTokens.userId, user.id), gt(passwordResetTokens.createdAt, new Date(Date.now() - 60 * 60 * 1000))))
-  if ((recent?.n ?? 0) >= MAX_RESET_MAILS_PER_HOUR) return
-  const { token, tokenHash } = newToken()
-  await db.transaction(async (tx) => {
-    await tx.insert(passwordResetTokens).values({ userId: user.id, tokenHash, expiresAt: new Date(Date.now() + RESET_LIFETIME_MS) })
-    await recordAudit({ organisationId: null, userId: user.id, action: 'password_reset_request', entity: 'account', entityId: user.id }, { tx, event })
-  })
-  await queueMail(user.email, passwordResetMail({ link: appLink(`/reset-password/${token}`) }))
+  await enqueue('auth.password-reset', { email, ipAddress: clientAddress(event) })
 }
 
 type ResetToken = typeof passwordResetTokens.$inferSelect
@@ -47,9 +39,10 @@ export async function confirmPasswordReset(event: H3Event, token: string, passwo
     assertPasswordAllowed(password, user.email)
     const passwordHash = await hashPassword(password)
     await tx.update(users).set({ passwordHash, sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, user.id))
+    await revokeUserSessions(user.id, { executor: tx })
     await tx.update(passwordResetTokens).set({ usedAt: new Date() }).where(and(eq(passwordResetTokens.userId, user.id), isNull(passwordResetTokens.usedAt)))
     await recordAudit({ organisationId: null, userId: user.id, action: 'password_reset', entity: 'account', entityId: user.id }, { tx, event })
     return user.email
   })
-  await queueMail(email, passwordChangedMail({ signInLink: appLink('/sign-in'), resetLink: appLink('/reset-password') }))
+  await queueMail(email, passwordChangedMail({ signInLink: appLink('/sign-in'), resetLink: appLink('/reset-password') }), 'personal')
 }

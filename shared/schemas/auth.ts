@@ -56,10 +56,14 @@ export const idParamsSchema = z.object({ id: z.string().uuid() })
 export const inviteSchema = z.object({ email, role: roleEnum })
 export type InviteInput = z.infer<typeof inviteSchema>
 
-/** Accepting an invitation: a new account gives a name and a password; an existing one gives nothing. */
+/**
+ * Accepting an invitation: a new account gives a name and a password; an existing account accepts
+ * while signed in as the invited address, or gives its current password to sign in and accept.
+ */
 export const acceptInvitationSchema = z.object({
   name: z.string().trim().min(1, 'Enter your name.').max(120, 'Use at most 120 characters.').optional(),
   password: newPasswordSchema.optional(),
+  currentPassword: z.string().min(1, 'Enter your password.').max(PASSWORD_MAX_LENGTH, 'That password is too long.').optional(),
 })
 
 export const memberUpdateSchema = z.object({ role: roleEnum })

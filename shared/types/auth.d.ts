@@ -11,6 +11,8 @@ declare module '#auth-utils' {
     role?: 'admin' | 'analyst' | 'underwriter' | 'asset_manager' | 'viewer'
     /** Matches users.session_version; a password reset bumps it and ends older sessions. */
     sessionVersion?: number
+    /** The user_sessions row checked on every request; sign-out revokes it. */
+    sessionId?: string
     loggedInAt?: number
     // Added by server/plugins/session-check.ts when the app reads the session (never stored in the
     // cookie): read from the database, so a changed role or a new membership shows at once.

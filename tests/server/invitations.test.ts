@@ -1,7 +1,7 @@
 // Invitations: an admin invites an address with a role; the e-mailed link works once, for 7 days;
 // accepting creates the account or adds the membership to an existing one.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { Client, createMember, createOrganisation, memberClient } from '../support/accounts'
+import { Client, TEST_PASSWORD, createMember, createOrganisation, memberClient } from '../support/accounts'
 import { testPool } from '../support/db'
 import { linkIn, waitForMail } from '../support/mail'
 
@@ -67,10 +67,27 @@ describe('invitations', () => {
     const { email } = await createMember(pool, home, 'admin', 'multi.org@example.test')
     const { token } = await invite(email, 'underwriter')
     expect((await (await new Client().get(`/api/invitations/accept/${token}`)).json()).accountExists).toBe(true)
-    expect((await new Client().post(`/api/invitations/accept/${token}`, {})).status).toBe(200)
+    const memberships = async () => Number((await pool.query(`SELECT count(*)::int AS n FROM memberships m JOIN users u ON u.id = m.user_id WHERE u.email = $1`, [email])).rows[0].n)
 
+    // Without the person's consent nothing happens: no session, someone else's session, a wrong password.
+    const anonymous = await new Client().post(`/api/invitations/accept/${token}`, {})
+    expect(anonymous.status).toBe(401)
+    const somebodyElse = await memberClient(pool, home, 'viewer')
+    expect((await (await somebodyElse.get(`/api/invitations/accept/${token}`)).json()).signedInAsOther).toBe(true)
+    expect((await somebodyElse.post(`/api/invitations/accept/${token}`, {})).status).toBe(403)
+    expect((await new Client().post(`/api/invitations/accept/${token}`, { currentPassword: 'not the password at all' })).status).toBe(401)
+    expect(await memberships()).toBe(1)
+
+    // With the account's password the page signs the person in and accepts, in the new organisation.
     const client = new Client()
-    const signIn = await (await client.signIn(email)).json()
+    const accepted = await client.post(`/api/invitations/accept/${token}`, { currentPassword: TEST_PASSWORD })
+    expect(accepted.status).toBe(200)
+    expect(await accepted.json()).toMatchObject({ signedIn: true, accountCreated: false })
+    expect(await memberships()).toBe(2)
+    expect(await (await client.get('/api/auth/session')).json()).toMatchObject({ organisation: { id: org }, role: 'underwriter' })
+    await pool.query(`DELETE FROM sign_in_attempts`) // this file's failed attempts must not throttle later tests
+
+    const signIn = await (await new Client().signIn(email)).json()
     expect(signIn).toMatchObject({ organisationId: org, role: 'underwriter' })
     const session = await (await client.get('/api/auth/session')).json()
     expect(session.memberships.map((m: { organisationName: string, role: string }) => `${m.organisationName}:${m.role}`).sort())
@@ -83,6 +100,21 @@ describe('invitations', () => {
     // An organisation one does not belong to: 404.
     const stranger = await createOrganisation(pool, 'Stranger Broker', 'broker')
     expect((await client.post('/api/auth/switch-organisation', { organisationId: stranger })).status).toBe(404)
+  })
+
+  it('adds an existing account that is signed in as the invited address with one click', async () => {
+    const elsewhere = await createOrganisation(pool, 'Consent Broker', 'broker')
+    const elsewhereAdmin = await memberClient(pool, elsewhere, 'admin')
+    const home = await createOrganisation(pool, 'Consent Home Operator')
+    const { email } = await createMember(pool, home, 'analyst')
+    const person = new Client()
+    expect((await person.signIn(email)).status).toBe(200)
+    const { token } = await invite(email, 'viewer', elsewhereAdmin)
+    expect((await (await person.get(`/api/invitations/accept/${token}`)).json()).signedInAsInvitee).toBe(true)
+    const accepted = await person.post(`/api/invitations/accept/${token}`, {})
+    expect(accepted.status).toBe(200)
+    // The same session carries on, now in the organisation just joined.
+    expect(await (await person.get('/api/auth/session')).json()).toMatchObject({ organisation: { id: elsewhere }, role: 'viewer' })
   })
 
   it('refuses to invite an existing member, replaces an open invitation, and can withdraw or resend one', async () => {

@@ -31,6 +31,28 @@ describe('password reset', () => {
     expect(await mailTo(pool, 'no.such.person@example.test')).toEqual([])
   })
 
+  it('answers both paths the same way, before looking the address up: one queued job each', async () => {
+    const org = await createOrganisation(pool, 'Reset Queue Operator')
+    const { email } = await createMember(pool, org, 'viewer')
+    const unknownEmail = 'nobody.queued@example.test'
+    const known = await new Client().post('/api/auth/reset-password', { email })
+    const unknown = await new Client().post('/api/auth/reset-password', { email: unknownEmail })
+    expect(known.status).toBe(200)
+    expect(unknown.status).toBe(200)
+    expect(await known.json()).toEqual(await unknown.json())
+    // The handler only enqueues: the same job, with the same payload shape, for both addresses.
+    const jobs = async (address: string) => (await pool.query(`SELECT name, data FROM pgboss.job WHERE name = 'auth.password-reset' AND data->>'email' = $1`, [address])).rows
+    const knownJobs = await jobs(email)
+    const unknownJobs = await jobs(unknownEmail)
+    expect(knownJobs).toHaveLength(1)
+    expect(unknownJobs).toHaveLength(1)
+    expect(Object.keys(knownJobs[0].data).sort()).toEqual(Object.keys(unknownJobs[0].data).sort())
+    // The worker then mails the real account only.
+    expect((await waitForMail(pool, email, new Date(Date.now() - 5000))).body).toContain('/reset-password/')
+    await new Promise(r => setTimeout(r, 1500))
+    expect(await mailTo(pool, unknownEmail)).toEqual([])
+  })
+
   it('sets a new password once, ends every session of the person, and refuses the link afterwards', async () => {
     const org = await createOrganisation(pool, 'Reset Sessions Operator')
     const { email, userId } = await createMember(pool, org, 'viewer')

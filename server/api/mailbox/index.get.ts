@@ -1,5 +1,5 @@
-// GET /api/mailbox — messages caught by the local mail fake (development, tests, demo) that were sent
-// to the organisation's members or to addresses it invited, newest first. Admins. With real SMTP
+// GET /api/mailbox — messages caught by the local mail fake (development, tests, demo) that this
+// organisation sent (invitations, run notices), newest first; never personal mail. Admins. With real SMTP
 // configured nothing is caught: { enabled: false }.
 import { settings } from '~~/server/settings'
 

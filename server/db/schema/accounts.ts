@@ -92,3 +92,20 @@ export const signInAttempts = pgTable('sign_in_attempts', {
   index('sign_in_attempts_email_idx').on(t.email, t.at),
   index('sign_in_attempts_ip_idx').on(t.ipAddress, t.at),
 ])
+
+/**
+ * A signed-in session. The sealed cookie carries only this row's id (with the user and
+ * organisation); every request checks that the row exists, belongs to the user and is not revoked,
+ * so signing out (or out everywhere) ends the cookie at once, wherever it was copied.
+ */
+export const userSessions = pgTable('user_sessions', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  /** Updated at most once a minute, so the per-request check stays a read. */
+  lastSeenAt: timestamp('last_seen_at', { withTimezone: true }).notNull().defaultNow(),
+  revokedAt: timestamp('revoked_at', { withTimezone: true }),
+  /** What the person sees in their list of sessions (browser, address); shortened, never trusted. */
+  userAgent: text('user_agent').notNull().default(''),
+  ipAddress: text('ip_address').notNull().default(''),
+}, t => [index('user_sessions_user_idx').on(t.userId, t.createdAt)])

@@ -25,6 +25,10 @@ export const rules: RouteRule[] = [
   { method: 'POST', file: 'server/api/auth/switch-organisation.post.ts', path: '/api/auth/switch-organisation', allowed: EVERYONE },
   { method: 'POST', file: 'server/api/auth/change-password.post.ts', path: '/api/auth/change-password', allowed: EVERYONE },
   { method: 'PATCH', file: 'server/api/auth/profile.patch.ts', path: '/api/auth/profile', allowed: EVERYONE },
+  // One's own sessions and one's own mail (they take no id: only ever the caller's own rows).
+  { method: 'GET', file: 'server/api/auth/sessions/index.get.ts', path: '/api/auth/sessions', allowed: EVERYONE },
+  { method: 'POST', file: 'server/api/auth/sessions/sign-out-everywhere.post.ts', path: '/api/auth/sessions/sign-out-everywhere', allowed: EVERYONE },
+  { method: 'GET', file: 'server/api/my-mail/index.get.ts', path: '/api/my-mail', allowed: EVERYONE },
 
   // The organisation's people: admins only.
   { method: 'GET', file: 'server/api/members/index.get.ts', path: '/api/members', allowed: ADMINS },

@@ -1,8 +1,9 @@
 // GET /api/invitations/accept/:token — what an invitation link offers (organisation, role, whether
-// the address has an account). Public: the token is the credential. 404 unknown, 410 no longer usable.
+// the address has an account, whether the caller is signed in as it). Public: the token is the
+// credential. 404 unknown, 410 no longer usable.
 import { tokenParamsSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
   const { token } = await getValidatedRouterParams(event, tokenParamsSchema.parse)
-  return await describeInvitation(token)
+  return await describeInvitation(event, token)
 })

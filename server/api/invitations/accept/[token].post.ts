@@ -1,5 +1,7 @@
 // POST /api/invitations/accept/:token — accept an invitation: a new account sends its name and
-// password; an existing account is simply added. Public: the token is the credential. Single use.
+// password; an existing account must be signed in as the invited address, or send its current
+// password (then it is signed in). Public: the token and the account's consent are the credential.
+// Single use.
 import { acceptInvitationSchema, tokenParamsSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
