@@ -9,9 +9,13 @@ import type { FinancialQuery } from '../../shared/schemas/insurance'
 import type { YearLossSummary } from '../../shared/engine/exceedance'
 import { useDb } from '../db'
 import { assumptionSets, assumptionSetVersions, runs, runSiteResults, runSiteSnapshots, users } from '../db/schema'
-import { decodeEvents } from '../runs/events-codec'
+import { decodeEvents, type DecodedEvents } from '../runs/events-codec'
 import type { SiteFacts } from '../runs/snapshot'
-import { findTermsVersion, runTermsVersionId, termsBySite } from './terms-store'
+import type { PortfolioLayer } from '../../shared/insurance/layers'
+import { NO_TERMS } from '../../shared/insurance/terms'
+import { tankSeverity } from '../../shared/engine/ignition'
+import type { TankInput } from '../../shared/engine/types'
+import { findTermsVersion, layersOf, runTermsVersionId, termsBySite } from './terms-store'
 
 export class FinancialViewError extends Error {
   constructor(readonly statusCode: 400 | 404, message: string) { super(message) }
@@ -22,7 +26,24 @@ export interface FinancialInputs {
   requestedByName: string | null
   assumptions: { versionId: string, setName: string, version: number }
   terms: { versionId: string, setId: string, setName: string, version: number, recordedByRun: boolean } | null
-  sites: (SiteLosses & { name: string, externalId: string, operatorName: string })[]
+  sites: (SiteLosses & { name: string, externalId: string, operatorName: string, describe: (event: number) => EventDetail })[]
+  layers: PortfolioLayer[]
+}
+
+/** What burned in one event: the tanks (by tag, and whether by spread) and their value at risk. */
+export interface EventDetail { valueAtRisk: number | null, tanks: { tag: string, bySpread: boolean }[] }
+
+function eventDescriber(events: DecodedEvents, snapshotTanks: TankInput[] | undefined) {
+  return (k: number): EventDetail => {
+    const tanks: EventDetail['tanks'] = []
+    let valueAtRisk: number | null = snapshotTanks ? 0 : null
+    for (let i = events.tankStart[k]!; i < events.tankStart[k + 1]!; i++) {
+      const tank = snapshotTanks?.[events.tankIndex[i]!]
+      tanks.push({ tag: tank?.tag ?? `#${events.tankIndex[i]! + 1}`, bySpread: events.split?.tankBySpread[i] === 1 })
+      if (valueAtRisk !== null) valueAtRisk = tank ? valueAtRisk + tankSeverity(tank) : null
+    }
+    return { valueAtRisk, tanks }
+  }
 }
 
 /** Run, terms and every site's events, scoped to the organisation. */
@@ -39,13 +60,15 @@ export async function loadFinancialInputs(organisationId: string, runId: string,
   const chosen = termsVersionId ?? recorded
   let terms: FinancialInputs['terms'] = null
   let bySite = new Map<string, SiteTerms>()
+  let layers: PortfolioLayer[] = []
   if (chosen) {
     const version = await findTermsVersion(db, organisationId, chosen)
     if (!version) throw new FinancialViewError(404, 'Terms version not found.')
     terms = { versionId: version.version.id, setId: version.set.id, setName: version.set.name, version: version.version.version, recordedByRun: chosen === recorded }
     bySite = await termsBySite(db, chosen)
+    layers = await layersOf(db, chosen)
   }
-  const siteRows = await db.select({ siteId: runSiteResults.siteId, events: runSiteResults.events, facts: runSiteSnapshots.facts }).from(runSiteResults)
+  const siteRows = await db.select({ siteId: runSiteResults.siteId, events: runSiteResults.events, facts: runSiteSnapshots.facts, site: runSiteSnapshots.site }).from(runSiteResults)
     .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))
     .where(eq(runSiteResults.runId, runId)).orderBy(asc(runSiteResults.siteId))
   return {
@@ -53,10 +76,17 @@ export async function loadFinancialInputs(organisationId: string, runId: string,
     requestedByName: row.requestedByName,
     assumptions: { versionId: row.run.assumptionVersionId, setName: row.setName, version: row.version },
     terms,
+    layers,
     sites: siteRows.map((r) => {
       const facts = r.facts as SiteFacts
-      const events = r.events ? decodeEvents(r.events) : { year: new Int32Array(0), loss: new Float64Array(0) }
-      return { siteId: r.siteId, name: facts.name, externalId: facts.externalId, operatorName: facts.operatorName, events: { year: events.year, loss: events.loss }, terms: bySite.get(r.siteId) ?? null }
+      const events: DecodedEvents = r.events ? decodeEvents(r.events) : { year: new Int32Array(0), loss: new Float64Array(0), tankStart: Int32Array.from([0]), tankIndex: new Int32Array(0), tankLoss: new Float64Array(0), split: null }
+      const snapshotTanks = (r.site as { tanks?: TankInput[] } | null)?.tanks
+      return {
+        siteId: r.siteId, name: facts.name, externalId: facts.externalId, operatorName: facts.operatorName,
+        events: { year: events.year, loss: events.loss, propertyDamage: events.split?.propertyDamage ?? null },
+        terms: bySite.get(r.siteId) ?? null,
+        describe: eventDescriber(events, snapshotTanks),
+      }
     }),
   }
 }
@@ -66,14 +96,20 @@ const compactSummary = (s: YearLossSummary) => ({
   aggregate: s.aggregate, occurrence: s.occurrence, aggregateCurve: s.aggregateCurve, occurrenceCurve: s.occurrenceCurve,
 })
 
+const compactSummaries = (m: PortfolioFinancials['summaries']) => ({ groundUp: compactSummary(m.groundUp), afterTerms: compactSummary(m.afterTerms), insured: compactSummary(m.insured) })
+
 function present(f: PortfolioFinancials, inputs: FinancialInputs) {
   const named = new Map(inputs.sites.map(s => [s.siteId, s]))
   return {
+    hasSplit: f.hasSplit,
     portfolio: {
       years: f.years,
       groundUp: compactSummary(f.summaries.groundUp),
       afterTerms: compactSummary(f.summaries.afterTerms),
       insured: compactSummary(f.summaries.insured),
+      propertyDamage: compactSummaries(f.splitSummaries.propertyDamage),
+      businessInterruption: compactSummaries(f.splitSummaries.businessInterruption),
+      premiumSplit: f.premiumSplit,
       insuredStandardDeviation: f.insuredStandardDeviation,
       tailReturnPeriodYears: f.tailReturnPeriodYears,
       insuredLossAtTail: f.insuredLossAtTail,
@@ -81,7 +117,8 @@ function present(f: PortfolioFinancials, inputs: FinancialInputs) {
       premium: f.premium,
     },
     sites: f.sites.map(s => ({ ...s, name: named.get(s.siteId)?.name ?? '', externalId: named.get(s.siteId)?.externalId ?? '', operatorName: named.get(s.siteId)?.operatorName ?? '' })),
-    largestEvents: f.largestEvents.map(e => ({ ...e, siteName: named.get(e.siteId)?.name ?? '' })),
+    largestEvents: f.largestEvents.map(e => ({ ...e, siteName: named.get(e.siteId)?.name ?? '', ...(named.get(e.siteId)?.describe(e.index) ?? { valueAtRisk: null, tanks: [] }) })),
+    layers: f.layers.map(l => ({ ...l, summary: compactSummary(l.summary) })),
   }
 }
 
@@ -89,7 +126,7 @@ function present(f: PortfolioFinancials, inputs: FinancialInputs) {
 function withChangedDeductibles(sites: FinancialInputs['sites'], q: FinancialQuery) {
   return sites.map((s) => {
     if (q.whatIfSiteId && s.siteId !== q.whatIfSiteId) return s
-    const base: SiteTerms = s.terms ?? { occurrenceDeductible: 0, occurrenceLimit: null, aggregateDeductible: 0, aggregateLimit: null, share: 1 }
+    const base: SiteTerms = s.terms ?? { ...NO_TERMS }
     return { ...s, terms: { ...base, occurrenceDeductible: q.whatIfOccurrenceDeductible ?? base.occurrenceDeductible, aggregateDeductible: q.whatIfAggregateDeductible ?? base.aggregateDeductible } }
   })
 }
@@ -109,8 +146,8 @@ export function financialView(inputs: FinancialInputs, q: FinancialQuery) {
   let baseline: PortfolioFinancials
   let changed: PortfolioFinancials | null = null
   try {
-    baseline = computeFinancials(inputs.sites, inputs.run.years, pricing)
-    if (hasWhatIf(q)) changed = computeFinancials(withChangedDeductibles(inputs.sites, q), inputs.run.years, pricing)
+    baseline = computeFinancials(inputs.sites, inputs.run.years, pricing, 50, inputs.layers)
+    if (hasWhatIf(q)) changed = computeFinancials(withChangedDeductibles(inputs.sites, q), inputs.run.years, pricing, 50, inputs.layers)
   } catch (error) {
     if (error instanceof RangeError) throw new FinancialViewError(400, `${error.message[0]!.toUpperCase()}${error.message.slice(1)}.`)
     throw error

@@ -2,9 +2,10 @@
 // then makes the set's next version, so every run's terms stay exactly as they were.
 import { and, asc, desc, eq, max } from 'drizzle-orm'
 import type { SiteTerms } from '../../shared/insurance/terms'
-import type { SiteTermsInput } from '../../shared/schemas/insurance'
+import type { LayerInput, SiteTermsInput } from '../../shared/schemas/insurance'
+import type { PortfolioLayer } from '../../shared/insurance/layers'
 import { useDb, type Database } from '../db'
-import { policySiteTerms, policyTermsSets, policyTermsVersions, portfolios, portfolioSites, runTerms, sites } from '../db/schema'
+import { policyLayers, policySiteTerms, policyTermsSets, policyTermsVersions, portfolios, portfolioSites, runTerms, sites } from '../db/schema'
 
 export async function findTermsSet(organisationId: string, setId: string) {
   const [set] = await useDb().select().from(policyTermsSets).where(and(eq(policyTermsSets.id, setId), eq(policyTermsSets.organisationId, organisationId)))
@@ -37,7 +38,18 @@ export async function listTermsSets(organisationId: string) {
 /** Per-site terms of a version, by site id. */
 export async function termsBySite(db: Database, versionId: string): Promise<Map<string, SiteTerms>> {
   const rows = await db.select().from(policySiteTerms).where(eq(policySiteTerms.versionId, versionId))
-  return new Map(rows.map(r => [r.siteId, { occurrenceDeductible: r.occurrenceDeductible, occurrenceLimit: r.occurrenceLimit, aggregateDeductible: r.aggregateDeductible, aggregateLimit: r.aggregateLimit, share: r.share }]))
+  return new Map(rows.map(r => [r.siteId, { occurrenceDeductible: r.occurrenceDeductible, occurrenceLimit: r.occurrenceLimit, aggregateDeductible: r.aggregateDeductible, aggregateLimit: r.aggregateLimit, interruptionDeductible: r.interruptionDeductible, share: r.share }]))
+}
+
+/** The version's layers on the portfolio, in their order. */
+export async function layersOf(db: Database, versionId: string): Promise<PortfolioLayer[]> {
+  const rows = await db.select().from(policyLayers).where(eq(policyLayers.versionId, versionId)).orderBy(asc(policyLayers.position))
+  return rows.map(r => ({ name: r.name, kind: r.kind, attachment: r.attachment, limit: r.limit }))
+}
+
+export async function writeLayers(tx: Database, versionId: string, layers: readonly LayerInput[]) {
+  await tx.delete(policyLayers).where(eq(policyLayers.versionId, versionId))
+  if (layers.length) await tx.insert(policyLayers).values(layers.map((l, position) => ({ versionId, position, ...l })))
 }
 
 /** The version's rows beside the portfolio's current sites (a site with no row shows empty terms). */
@@ -69,10 +81,11 @@ export async function writeTermsRows(tx: Database, versionId: string, rows: read
 }
 
 /** Adds the set's next version holding `rows`. */
-export async function addTermsVersion(tx: Database, setId: string, userId: string | null, note: string, rows: readonly SiteTermsInput[]) {
+export async function addTermsVersion(tx: Database, setId: string, userId: string | null, note: string, rows: readonly SiteTermsInput[], layers: readonly LayerInput[] = []) {
   const [{ latest } = { latest: 0 }] = await tx.select({ latest: max(policyTermsVersions.version) }).from(policyTermsVersions).where(eq(policyTermsVersions.termsSetId, setId))
   const [version] = await tx.insert(policyTermsVersions).values({ termsSetId: setId, version: (latest ?? 0) + 1, note, createdBy: userId }).returning()
   await writeTermsRows(tx, version!.id, rows)
+  await writeLayers(tx, version!.id, layers)
   return version!
 }
 

@@ -2,9 +2,11 @@
 // Failed and cancelled runs have no results: every query starts from a succeeded run.
 import { and, asc, desc, eq, sql } from 'drizzle-orm'
 import { useDb } from '../db'
-import { runPortfolioResults, runs, runSiteResults, runSiteSnapshots, runTankResults } from '../db/schema'
+import { assumptionSetVersions, runPortfolioResults, runs, runSiteResults, runSiteSnapshots, runTankResults } from '../db/schema'
 import type { SiteFacts } from '../runs/snapshot'
 import type { SiteInput } from '../../shared/engine/types'
+import { parseAssumptions } from '../../shared/engine/assumptions'
+import { spreadNeighbours, type SpreadNeighbour } from '../../shared/engine/loss'
 
 export type RunRow = typeof runs.$inferSelect
 type PortfolioRow = typeof runPortfolioResults.$inferSelect
@@ -21,6 +23,8 @@ export interface StoredYearSummary {
   aggregateCurve: { returnPeriodYears: number, loss: number }[]
   occurrenceCurve: { returnPeriodYears: number, loss: number }[]
   intervals?: { aggregate: IntervalRow[], occurrence: IntervalRow[] }
+  /** Engine 2 and later: the same summary for property damage and for business interruption. */
+  split?: { propertyDamage: StoredYearSummary, businessInterruption: StoredYearSummary }
 }
 
 export const TAIL_RETURN_PERIOD = 250
@@ -48,7 +52,7 @@ function atPeriod(summary: StoredYearSummary | null, T: number): RangedFigure {
   return ranged(row.loss, interval?.lo ?? null, interval?.hi ?? null)
 }
 
-export function headline(p: Pick<PortfolioRow, 'ignitionRate' | 'ignitionLo' | 'ignitionHi' | 'sparkingRate' | 'sparkingLo' | 'sparkingHi' | 'directRate' | 'directLo' | 'directHi' | 'expectedAnnualLoss' | 'expectedAnnualLossLo' | 'expectedAnnualLossHi'>, summary: StoredYearSummary | null) {
+export function headline(p: Pick<PortfolioRow, 'ignitionRate' | 'ignitionLo' | 'ignitionHi' | 'sparkingRate' | 'sparkingLo' | 'sparkingHi' | 'directRate' | 'directLo' | 'directHi' | 'expectedAnnualLoss' | 'expectedAnnualLossLo' | 'expectedAnnualLossHi'> & Partial<Pick<PortfolioRow, 'expectedAnnualLossPd' | 'expectedAnnualLossBi'>>, summary: StoredYearSummary | null) {
   const tail = summary?.aggregate.find(r => r.returnPeriodYears === TAIL_RETURN_PERIOD)?.tailValueAtRisk ?? null
   return {
     ignitionPerYear: ranged(p.ignitionRate, p.ignitionLo, p.ignitionHi),
@@ -59,15 +63,29 @@ export function headline(p: Pick<PortfolioRow, 'ignitionRate' | 'ignitionLo' | '
     lossAt250Years: atPeriod(summary, 250),
     tailValueAtRisk: tail === null ? none : ranged(tail, null, null),
     tailReturnPeriodYears: TAIL_RETURN_PERIOD,
+    averageAnnualLossSplit: lossSplit(p),
   }
+}
+
+/** PD / BI of a result row, or null for a run stored before the split (total only). */
+export function lossSplit(p: { expectedAnnualLossPd?: number | null, expectedAnnualLossBi?: number | null }) {
+  return p.expectedAnnualLossPd === null || p.expectedAnnualLossPd === undefined || p.expectedAnnualLossBi === null || p.expectedAnnualLossBi === undefined
+    ? null
+    : { propertyDamage: p.expectedAnnualLossPd, businessInterruption: p.expectedAnnualLossBi }
 }
 
 export function exceedanceSeries(summary: StoredYearSummary | null, name: string) {
   if (!summary) return []
-  return [
+  const series = [
     { name, kind: 'aggregate' as const, points: summary.aggregateCurve.map(p => ({ returnPeriodYears: p.returnPeriodYears, loss: p.loss })) },
     { name, kind: 'occurrence' as const, points: summary.occurrenceCurve.map(p => ({ returnPeriodYears: p.returnPeriodYears, loss: p.loss })) },
   ]
+  if (summary.split) {
+    for (const [label, part] of [['property damage', summary.split.propertyDamage], ['business interruption', summary.split.businessInterruption]] as const) {
+      series.push({ name: `${name}, ${label}`, kind: 'aggregate' as const, points: part.aggregateCurve.map(p => ({ returnPeriodYears: p.returnPeriodYears, loss: p.loss })) })
+    }
+  }
+  return series
 }
 
 export async function portfolioResult(runId: string) {
@@ -83,6 +101,7 @@ export async function siteResults(runId: string) {
     sparkingRate: runSiteResults.sparkingRate, sparkingLo: runSiteResults.sparkingLo, sparkingHi: runSiteResults.sparkingHi,
     ignitionRate: runSiteResults.ignitionRate, ignitionLo: runSiteResults.ignitionLo, ignitionHi: runSiteResults.ignitionHi,
     expectedAnnualLoss: runSiteResults.expectedAnnualLoss, expectedAnnualLossLo: runSiteResults.expectedAnnualLossLo, expectedAnnualLossHi: runSiteResults.expectedAnnualLossHi,
+    expectedAnnualLossPd: runSiteResults.expectedAnnualLossPd, expectedAnnualLossBi: runSiteResults.expectedAnnualLossBi,
     radiusM: runSiteResults.radiusM, lambdaPerYear: runSiteResults.lambdaPerYear,
     lossAt100: sql<number | null>`(${runSiteResults.yearSummary} -> 'aggregate' -> 3 ->> 'loss')::float8`,
     tanks: sql<number>`jsonb_array_length(${runSiteSnapshots.site} -> 'tanks')`,
@@ -134,4 +153,19 @@ export async function siteDetail(runId: string, siteId: string) {
     facts: row.snapshot.facts as SiteFacts,
     tanks,
   }
+}
+
+/**
+ * The neighbours each tank's fire would most likely reach, by the run's own assumptions (tank id →
+ * the three most likely). `modelled` is false when the run's assumptions predate fire spread
+ * (engine 1) or switch it off.
+ */
+export async function runSpreadNeighbours(run: RunRow, site: SiteInput): Promise<{ modelled: boolean, byTank: Record<string, SpreadNeighbour[]> }> {
+  const [version] = await useDb().select({ parameters: assumptionSetVersions.parameters }).from(assumptionSetVersions).where(eq(assumptionSetVersions.id, run.assumptionVersionId))
+  const stored = (version?.parameters ?? {}) as Record<string, unknown>
+  if (!('fireSpread' in stored)) return { modelled: false, byTank: {} }
+  const assumptions = parseAssumptions(stored)
+  if (assumptions.fireSpread.model === 'off') return { modelled: false, byTank: {} }
+  const lists = spreadNeighbours(site, assumptions)
+  return { modelled: true, byTank: Object.fromEntries(site.tanks.map((t, i) => [t.id, lists[i]!.slice(0, 3)])) }
 }

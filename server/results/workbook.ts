@@ -60,6 +60,9 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
   }
   const tail = ys?.aggregate.find(r => r.returnPeriodYears === 250)?.tailValueAtRisk ?? null
   rows.push([`Tail value-at-risk at 250 years (${currency})`, tail, null, null])
+  const hasSplit = p.expectedAnnualLossPd !== null && p.expectedAnnualLossBi !== null
+  rows.push([`Average annual loss, property damage (${currency}/yr)`, hasSplit ? p.expectedAnnualLossPd : 'total only (run made before the split)', null, null])
+  rows.push([`Average annual loss, business interruption (${currency}/yr)`, hasSplit ? p.expectedAnnualLossBi : 'total only (run made before the split)', null, null])
   rows.push([], ['Provenance'],
     ['Run id', run.id], ['Portfolio', text(run.portfolioName)], ['Mode', run.mode === 'year' ? `simulated years (${run.years} per site)` : `frequency (target relative standard error ${run.targetRse})`],
     ['Seed', run.seed], ['Engine version', run.engineVersion], ['Assumption set', `${text(input.assumptions.setName)} — version ${input.assumptions.version}`],
@@ -70,7 +73,7 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
   summary.getRow(5).font = { bold: true }
   summary.getCell(2, 2).alignment = { wrapText: true }
   for (let r = 6; r <= 8; r++) for (let c = 2; c <= 4; c++) summary.getCell(r, c).numFmt = FREQ
-  for (let r = 9; r <= 12; r++) for (let c = 2; c <= 4; c++) summary.getCell(r, c).numFmt = '#,##0'
+  for (let r = 9; r <= 14; r++) for (let c = 2; c <= 4; c++) summary.getCell(r, c).numFmt = '#,##0'
 
   table(wb.addWorksheet('Sites'), [
     { header: 'site', key: 'name', width: 30 }, { header: 'external_id', key: 'externalId', width: 14 }, { header: 'operator', key: 'operator', width: 24 },
@@ -78,8 +81,11 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
     { header: 'tanks', key: 'tanks', width: 8 }, { header: 'simulated_radius_m', key: 'radius', width: 18, numFmt: '0' },
     { header: 'expected_fires_per_yr', key: 'ign', width: 20, numFmt: FREQ }, { header: 'expected_fires_lo', key: 'ignLo', width: 17, numFmt: FREQ }, { header: 'expected_fires_hi', key: 'ignHi', width: 17, numFmt: FREQ },
     { header: 'sparking_per_yr', key: 'spk', width: 16, numFmt: FREQ }, { header: 'direct_strikes_per_yr', key: 'dir', width: 20, numFmt: FREQ },
-    { header: `average_annual_loss_${currency}_per_yr`, key: 'eal', width: 26, numFmt: '#,##0' }, { header: `loss_at_100_years_${currency}`, key: 'l100', width: 22, numFmt: '#,##0' },
+    { header: `average_annual_loss_${currency}_per_yr`, key: 'eal', width: 26, numFmt: '#,##0' },
+    { header: `property_damage_${currency}_per_yr`, key: 'pd', width: 24, numFmt: '#,##0' }, { header: `business_interruption_${currency}_per_yr`, key: 'bi', width: 28, numFmt: '#,##0' },
+    { header: `loss_at_100_years_${currency}`, key: 'l100', width: 22, numFmt: '#,##0' },
   ], input.sites.map(s => ({
+    pd: s.expectedAnnualLossPd, bi: s.expectedAnnualLossBi,
     name: text(s.facts.name), externalId: text(s.facts.externalId), operator: text(s.facts.operatorName), lat: s.facts.latitudeDeg, lon: s.facts.longitudeDeg,
     tanks: s.tanks, radius: s.radiusM, ign: s.ignitionRate, ignLo: s.ignitionLo, ignHi: s.ignitionHi, spk: s.sparkingRate, dir: s.directRate, eal: s.expectedAnnualLoss, l100: s.lossAt100,
   })))
@@ -91,8 +97,10 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
     { header: 'sparking_per_yr', key: 'spk', width: 16, numFmt: FREQ }, { header: 'sparking_lo', key: 'spkLo', width: 14, numFmt: FREQ }, { header: 'sparking_hi', key: 'spkHi', width: 14, numFmt: FREQ },
     { header: 'direct_strikes_per_yr', key: 'dir', width: 20, numFmt: FREQ },
     { header: `expected_annual_loss_${currency}_per_yr`, key: 'eal', width: 26, numFmt: '#,##0' },
+    { header: `property_damage_${currency}_per_yr`, key: 'pd', width: 24, numFmt: '#,##0' }, { header: `business_interruption_${currency}_per_yr`, key: 'bi', width: 28, numFmt: '#,##0' },
     { header: 'driving_component_class', key: 'cls', width: 24 }, { header: 'samples', key: 'samples', width: 12 },
   ], input.tanks.map(t => ({
+    pd: t.expectedAnnualLossPd, bi: t.expectedAnnualLossBi,
     site: text(siteName.get(t.siteId)), tag: text(t.tag), ign: t.ignitionRate, ignLo: t.ignitionLo, ignHi: t.ignitionHi,
     spk: t.sparkingRate, spkLo: t.sparkingLo, spkHi: t.sparkingHi, dir: t.directRate, eal: t.expectedAnnualLoss, cls: t.drivingComponentClass ?? '', samples: t.samples,
   })))

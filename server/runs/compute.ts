@@ -7,7 +7,7 @@ import { simulateSiteYears } from '../../shared/engine/years'
 import { normalEstimate } from '../../shared/engine/statistics'
 import type { CountEstimate, Estimate, SiteInput } from '../../shared/engine/types'
 import type { YearLossSummary } from '../../shared/engine/exceedance'
-import type { PackedEvents } from './events-codec'
+import type { PackedEvents, PackedSplit } from './events-codec'
 import { siteEventBands, type SiteEventBands } from '../../shared/engine/heatmap'
 
 export type RunMode = 'frequency' | 'year'
@@ -32,6 +32,9 @@ export interface TankComputation {
   sparking: Figure
   ignition: Figure
   expectedAnnualLoss: Figure
+  /** Property damage and business interruption parts of the expected annual loss (money/yr). */
+  expectedAnnualLossPd: number
+  expectedAnnualLossBi: number
   samples: number
   drivingComponentClass: string | null
   converged: boolean
@@ -45,10 +48,13 @@ export interface SiteComputation {
   sparking: Figure
   ignition: Figure
   expectedAnnualLoss: Figure
+  expectedAnnualLossPd: number
+  expectedAnnualLossBi: number
   samples: number
   tanks: TankComputation[]
-  yearSummary: YearLossSummary | null
-  events: PackedEvents | null
+  /** Year mode: the total's summary, with the property-damage and interruption summaries beside it. */
+  yearSummary: (YearLossSummary & { split: { propertyDamage: YearLossSummary, businessInterruption: YearLossSummary } }) | null
+  events: (PackedEvents & { split: PackedSplit }) | null
   /** Tank events per year by current band × distance band (the site heatmap). */
   eventBands: SiteEventBands
 }
@@ -85,11 +91,14 @@ function computeFrequency(task: SiteTask): SiteFigures {
     sparking: r.totals.sparking,
     ignition: r.totals.ignition,
     expectedAnnualLoss: r.totals.expectedAnnualLoss,
+    expectedAnnualLossPd: r.totals.expectedAnnualLossPd.rate,
+    expectedAnnualLossBi: r.totals.expectedAnnualLossBi.rate,
     samples: r.samples,
     tanks: r.tanks.map(t => ({
       tankId: t.tankId, tag: t.tag,
       direct: t.direct, sparking: t.sparking, ignition: t.ignition,
       expectedAnnualLoss: t.expectedAnnualLoss,
+      expectedAnnualLossPd: t.expectedAnnualLossPd.rate, expectedAnnualLossBi: t.expectedAnnualLossBi.rate,
       samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
     })),
     yearSummary: null,
@@ -110,14 +119,20 @@ function computeYears(task: SiteTask): SiteFigures {
     sparking: siteCount(sumCounts(t => t.sparking)),
     ignition: siteCount(sumCounts(t => t.ignition)),
     expectedAnnualLoss: fromMean({ mean: r.summary.averageAnnualLoss, se: r.summary.averageAnnualLossSe }),
+    expectedAnnualLossPd: r.propertyDamage.summary.averageAnnualLoss,
+    expectedAnnualLossBi: r.businessInterruption.summary.averageAnnualLoss,
     samples: r.candidates,
     tanks: r.tanks.map(t => ({
       tankId: t.tankId, tag: t.tag,
       direct: fromCount(t.direct, Y), sparking: fromCount(t.sparking, Y), ignition: fromCount(t.ignition, Y),
       expectedAnnualLoss: fromMean(t.averageAnnualLoss),
+      expectedAnnualLossPd: t.averageAnnualLossPd.mean, expectedAnnualLossBi: t.averageAnnualLossBi.mean,
       samples: r.candidates, drivingComponentClass: null, converged: true,
     })),
-    yearSummary: r.summary,
-    events: { year: r.events.year, loss: r.events.loss, tankStart: r.events.tankStart, tankIndex: r.events.tankIndex, tankLoss: r.events.tankLoss },
+    yearSummary: { ...r.summary, split: { propertyDamage: r.propertyDamage.summary, businessInterruption: r.businessInterruption.summary } },
+    events: {
+      year: r.events.year, loss: r.events.loss, tankStart: r.events.tankStart, tankIndex: r.events.tankIndex, tankLoss: r.events.tankLoss,
+      split: { propertyDamage: r.events.propertyDamage, tankPropertyDamage: r.events.tankPropertyDamage, tankBySpread: r.events.tankBySpread },
+    },
   }
 }

@@ -16,20 +16,33 @@ const figure = (r: SiteRow, p: 'direct' | 'sparking' | 'ignition'): Figure =>
 const lossFigure = (r: SiteRow): Figure =>
   ({ rate: r.expectedAnnualLoss, se: r.expectedAnnualLossSe, lo: r.expectedAnnualLossLo, hi: r.expectedAnnualLossHi })
 
-/** Year mode: the portfolio's year-loss table, built from every site's events in site-id order. */
-function portfolioYearTable(rows: SiteRow[], years: number) {
-  const yearLosses = new Float64Array(years)
-  const yearMaxEventLoss = new Float64Array(years)
+interface Table { yearLosses: Float64Array, yearMaxEventLoss: Float64Array }
+const emptyTable = (years: number): Table => ({ yearLosses: new Float64Array(years), yearMaxEventLoss: new Float64Array(years) })
+function addEvent(t: Table, y: number, loss: number) {
+  t.yearLosses[y]! += loss
+  if (loss > t.yearMaxEventLoss[y]!) t.yearMaxEventLoss[y] = loss
+}
+
+/**
+ * Year mode: the portfolio's year-loss tables (total, property damage, business interruption),
+ * built from every site's events in site-id order.
+ */
+function portfolioYearTables(rows: SiteRow[], years: number) {
+  const total = emptyTable(years)
+  const pd = emptyTable(years)
+  const bi = emptyTable(years)
   for (const row of rows) {
     if (!row.events) continue
     const e = decodeEvents(row.events)
     for (let k = 0; k < e.year.length; k++) {
       const y = e.year[k]!
-      yearLosses[y]! += e.loss[k]!
-      if (e.loss[k]! > yearMaxEventLoss[y]!) yearMaxEventLoss[y] = e.loss[k]!
+      addEvent(total, y, e.loss[k]!)
+      const p = e.split ? e.split.propertyDamage[k]! : 0
+      addEvent(pd, y, p)
+      addEvent(bi, y, e.loss[k]! - p)
     }
   }
-  return { yearLosses, yearMaxEventLoss }
+  return { total, pd, bi }
 }
 
 /** Adds 95 % intervals to the losses at the standard return periods (aggregate and occurrence). */
@@ -48,9 +61,13 @@ export async function finaliseRun(runId: string): Promise<boolean> {
     // Fixed order (by site id) so that sums are bit-identical however the chunks were worked.
     const rows = await tx.select().from(runSiteResults).where(eq(runSiteResults.runId, runId)).orderBy(asc(runSiteResults.siteId))
     let values
+    const splitSum = (key: 'expectedAnnualLossPd' | 'expectedAnnualLossBi') => rows.reduce((s, r) => s + (r[key] ?? 0), 0)
+    const pd = splitSum('expectedAnnualLossPd')
+    const bi = splitSum('expectedAnnualLossBi')
     if (run.mode === 'frequency') {
       const eal = sumEstimates(rows.map(lossFigure))
       values = {
+        pd, bi,
         direct: sumEstimates(rows.map(r => figure(r, 'direct'))),
         sparking: sumEstimates(rows.map(r => figure(r, 'sparking'))),
         ignition: sumEstimates(rows.map(r => figure(r, 'ignition'))),
@@ -58,9 +75,17 @@ export async function finaliseRun(runId: string): Promise<boolean> {
         yearSummary: null,
       }
     } else {
-      const table = portfolioYearTable(rows, run.years)
-      const summary = withIntervals(summariseYearLosses(table.yearLosses, table.yearMaxEventLoss), table)
+      const tables = portfolioYearTables(rows, run.years)
+      const table = tables.total
+      const summary = {
+        ...withIntervals(summariseYearLosses(table.yearLosses, table.yearMaxEventLoss), table),
+        split: {
+          propertyDamage: withIntervals(summariseYearLosses(tables.pd.yearLosses, tables.pd.yearMaxEventLoss), tables.pd),
+          businessInterruption: withIntervals(summariseYearLosses(tables.bi.yearLosses, tables.bi.yearMaxEventLoss), tables.bi),
+        },
+      }
       values = {
+        pd: summary.split.propertyDamage.averageAnnualLoss, bi: summary.split.businessInterruption.averageAnnualLoss,
         direct: sumCounts(rows.map(r => figure(r, 'direct')), run.years),
         sparking: sumCounts(rows.map(r => figure(r, 'sparking')), run.years),
         ignition: sumCounts(rows.map(r => figure(r, 'ignition')), run.years),
@@ -74,6 +99,7 @@ export async function finaliseRun(runId: string): Promise<boolean> {
       sparkingRate: values.sparking.rate, sparkingLo: values.sparking.lo, sparkingHi: values.sparking.hi, sparkingSe: values.sparking.se,
       ignitionRate: values.ignition.rate, ignitionLo: values.ignition.lo, ignitionHi: values.ignition.hi, ignitionSe: values.ignition.se,
       expectedAnnualLoss: values.eal.rate, expectedAnnualLossLo: values.eal.lo, expectedAnnualLossHi: values.eal.hi, expectedAnnualLossSe: values.eal.se,
+      expectedAnnualLossPd: values.pd, expectedAnnualLossBi: values.bi,
       yearSummary: values.yearSummary,
     }).onConflictDoNothing()
     await tx.update(runs).set({ state: 'succeeded', finishedAt: new Date() }).where(eq(runs.id, runId))

@@ -10,6 +10,7 @@ const cols = (prefix: 'direct' | 'sparking' | 'ignition', f: Figure) => ({
 }) as Record<string, number>
 
 const money = (f: Figure) => ({ expectedAnnualLoss: f.rate, expectedAnnualLossLo: f.lo, expectedAnnualLossHi: f.hi })
+const split = (x: { expectedAnnualLossPd: number, expectedAnnualLossBi: number }) => ({ expectedAnnualLossPd: x.expectedAnnualLossPd, expectedAnnualLossBi: x.expectedAnnualLossBi })
 
 export interface StoredChunk { alreadyDone: boolean, chunksDone: number, chunksTotal: number }
 
@@ -28,7 +29,7 @@ export async function storeChunk(tx: Database, runId: string, chunkIndex: number
   for (const s of sites) {
     await tx.insert(runSiteResults).values({
       runId, siteId: s.siteId, radiusM: s.radiusM, lambdaPerYear: s.lambdaPerYear,
-      ...cols('direct', s.direct), ...cols('sparking', s.sparking), ...cols('ignition', s.ignition), ...money(s.expectedAnnualLoss),
+      ...cols('direct', s.direct), ...cols('sparking', s.sparking), ...cols('ignition', s.ignition), ...money(s.expectedAnnualLoss), ...split(s),
       directSe: s.direct.se, sparkingSe: s.sparking.se, ignitionSe: s.ignition.se, expectedAnnualLossSe: s.expectedAnnualLoss.se,
       samples: s.samples,
       yearSummary: s.yearSummary,
@@ -38,7 +39,7 @@ export async function storeChunk(tx: Database, runId: string, chunkIndex: number
     if (s.tanks.length > 0) {
       await tx.insert(runTankResults).values(s.tanks.map(t => ({
         runId, siteId: s.siteId, tankId: t.tankId, tag: t.tag,
-        ...cols('direct', t.direct), ...cols('sparking', t.sparking), ...cols('ignition', t.ignition), ...money(t.expectedAnnualLoss),
+        ...cols('direct', t.direct), ...cols('sparking', t.sparking), ...cols('ignition', t.ignition), ...money(t.expectedAnnualLoss), ...split(t),
         samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
       }) as typeof runTankResults.$inferInsert))
     }

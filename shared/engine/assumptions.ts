@@ -4,6 +4,7 @@ import { z } from 'zod'
 import type { AttachmentModel, ComponentClass, Contents } from './types'
 import type { FlashDensityFormula } from './flash-density'
 import { SPEED_OF_LIGHT_M_PER_S } from './induction'
+import type { DamageRatio, FireSpread, LossComponent } from './loss'
 
 export type CurrentLawKind = 'power_law' | 'lognormal' | 'empirical'
 export type SparkContents = Exclude<Contents, 'chemical'>
@@ -33,7 +34,9 @@ export interface AssumptionSet {
   ignitionGivenDirectNonConducting: number
   ignitionGivenDirectSteel: number
   vapourControlFactor: number
-  damageFactorSigma: number
+  /** Damage ratio per loss component: mean and standard deviation of a beta distribution on [0, 1]. */
+  damageRatio: Record<LossComponent, DamageRatio>
+  fireSpread: FireSpread
   flashDensityFormula: FlashDensityFormula
   cutoffProbability: number
 }
@@ -71,7 +74,13 @@ export const defaultAssumptions: Readonly<AssumptionSet> = Object.freeze({
   ignitionGivenDirectNonConducting: 0.5,
   ignitionGivenDirectSteel: 0.02,
   vapourControlFactor: 0.3,
-  damageFactorSigma: 0.5,
+  damageRatio: {
+    replacement: { mean: 0.7, sd: 0.25 },
+    contents: { mean: 0.8, sd: 0.25 },
+    cleanup: { mean: 0.6, sd: 0.3 },
+    interruption: { mean: 0.6, sd: 0.3 },
+  },
+  fireSpread: { model: 'exponential', probabilityAtContact: 0.25, decayLengthM: 5, maxDistanceM: 25 },
   flashDensityFormula: 'anderson',
   cutoffProbability: 1e-6,
 } satisfies AssumptionSet)
@@ -113,6 +122,20 @@ function ignitionMeta(): AssumptionParameterMeta[] {
   }))
 }
 
+const LOSS_LABELS: Record<LossComponent, string> = {
+  replacement: 'replacement (property damage)', contents: 'contents (property damage)', cleanup: 'clean-up (property damage)', interruption: 'interruption (business interruption)',
+}
+
+function damageRatioMeta(): AssumptionParameterMeta[] {
+  return (Object.keys(LOSS_LABELS) as LossComponent[]).flatMap((c) => [
+    { key: `damageRatio.${c}.mean`, label: `Damage ratio given fire, mean, ${LOSS_LABELS[c]}`, unit: 'share of value (0–1)', default: defaultAssumptions.damageRatio[c].mean, source: `${ILLUSTRATIVE}; beta distribution on [0, 1] (MODEL.md §4)`, kind: 'number' as const },
+    { key: `damageRatio.${c}.sd`, label: `Damage ratio given fire, standard deviation, ${LOSS_LABELS[c]}`, unit: 'share of value (0–1)', default: defaultAssumptions.damageRatio[c].sd, source: `${ILLUSTRATIVE}; must stay below √(mean·(1 − mean))`, kind: 'number' as const },
+  ])
+}
+
+/** Basis of the spread defaults, as the product states it. */
+const SPREAD_BASIS = 'from memory: flammable-liquid tank spacing practice (NFPA 30 shell-to-shell spacing of about one sixth of the sum of the two diameters, at least 0.9 m) expects a neighbour one spacing away to be exposed but not usually lost; common practice treats spread beyond about one diameter as rare'
+
 /** One row per parameter, in form order, so the UI can render a form and an assumption-set comparison. */
 export const assumptionParameterMeta: readonly AssumptionParameterMeta[] = Object.freeze([
   { key: 'attachmentModel', label: 'Attachment rule', unit: '', default: 'egm', kind: 'choice', options: ['egm', 'collection_area'], source: 'Electrogeometric model, rolling-sphere form of IEC 62305-1 (MODEL.md §2); option: IEC 62305-2 collection area (3H)' },
@@ -137,7 +160,11 @@ export const assumptionParameterMeta: readonly AssumptionParameterMeta[] = Objec
   { key: 'ignitionGivenDirectNonConducting', label: 'Ignition given a direct strike, non-conducting tank with vapour space', unit: 'probability', default: 0.5, kind: 'number', source: `${ILLUSTRATIVE} (MODEL.md §4)` },
   { key: 'ignitionGivenDirectSteel', label: 'Ignition given a direct strike, steel tank with vapour space', unit: 'probability', default: 0.02, kind: 'number', source: `${ILLUSTRATIVE} (MODEL.md §4)` },
   { key: 'vapourControlFactor', label: 'Vapour-control factor on ignition', unit: '', default: 0.3, kind: 'number', source: ILLUSTRATIVE },
-  { key: 'damageFactorSigma', label: 'Damage factor spread (log σ, mean 1)', unit: '', default: 0.5, kind: 'number', source: ILLUSTRATIVE },
+  ...damageRatioMeta(),
+  { key: 'fireSpread.model', label: 'Fire spread to neighbouring tanks', unit: '', default: 'exponential', kind: 'choice', options: ['exponential', 'off'], source: 'p(d) = p0·exp(−d/L) up to dmax, d the shell-to-shell distance (MODEL.md §4); off: no spread' },
+  { key: 'fireSpread.probabilityAtContact', label: 'Fire spread: probability to a touching neighbour (p0)', unit: 'probability', default: 0.25, kind: 'number', source: `${ILLUSTRATIVE}; ${SPREAD_BASIS}` },
+  { key: 'fireSpread.decayLengthM', label: 'Fire spread: decay length (L)', unit: 'm', default: 5, kind: 'number', source: `${ILLUSTRATIVE}; ${SPREAD_BASIS}` },
+  { key: 'fireSpread.maxDistanceM', label: 'Fire spread: largest shell-to-shell distance reached (dmax)', unit: 'm', default: 25, kind: 'number', source: `${ILLUSTRATIVE}; ${SPREAD_BASIS}` },
   { key: 'flashDensityFormula', label: 'Flash density from thunderstorm days', unit: '', default: 'anderson', kind: 'choice', options: ['anderson', 'iec'], source: 'Anderson 0.04·Td^1.25 (IEEE Std 1410, 1243); IEC 62305-2 0.1·Td' },
   { key: 'cutoffProbability', label: 'Negligible sparking probability (sets the simulated radius)', unit: 'probability', default: 1e-6, kind: 'number', source: 'MODEL.md §1' },
 ] satisfies AssumptionParameterMeta[])
@@ -151,6 +178,13 @@ const probability = (label: string) => num(label).refine((v) => v >= 0 && v <= 1
 const thresholdSchema = (cls: ComponentClass) => z.strictObject({
   u50Kv: positive(`U50 of ${CLASS_LABELS[cls]}`, 'kV'),
   sigma: num(`σ of ${CLASS_LABELS[cls]}`).refine((v) => v >= 0 && v <= 3, { error: `σ of ${CLASS_LABELS[cls]} must lie between 0 (sharp threshold) and 3` }),
+})
+
+const damageRatioSchema = (label: string) => z.strictObject({
+  mean: probability(`mean damage ratio (${label})`),
+  sd: num(`damage ratio standard deviation (${label})`).refine((v) => v >= 0, { error: `the damage ratio standard deviation (${label}) must be 0 or more` }),
+}).refine((d) => d.sd === 0 || d.sd * d.sd < d.mean * (1 - d.mean), {
+  error: `the damage ratio standard deviation (${label}) must be below √(mean·(1 − mean)) for a distribution on [0, 1] (0 for a constant ratio)`,
 })
 
 export const assumptionSetSchema = z.strictObject({
@@ -186,7 +220,18 @@ export const assumptionSetSchema = z.strictObject({
   ignitionGivenDirectNonConducting: probability('ignition given a direct strike (non-conducting tank)'),
   ignitionGivenDirectSteel: probability('ignition given a direct strike (steel tank)'),
   vapourControlFactor: probability('vapour-control factor'),
-  damageFactorSigma: num('damage factor spread').refine((v) => v >= 0 && v <= 3, { error: 'damage factor spread (log σ) must lie between 0 and 3' }),
+  damageRatio: z.strictObject({
+    replacement: damageRatioSchema('replacement'),
+    contents: damageRatioSchema('contents'),
+    cleanup: damageRatioSchema('clean-up'),
+    interruption: damageRatioSchema('interruption'),
+  }),
+  fireSpread: z.strictObject({
+    model: z.enum(['exponential', 'off'], { error: "fireSpread.model must be 'exponential' or 'off'" }),
+    probabilityAtContact: probability('fire spread probability at contact'),
+    decayLengthM: positive('fire spread decay length', 'm'),
+    maxDistanceM: num('largest fire spread distance').refine((v) => v >= 0, { error: 'the largest fire spread distance must be 0 m or more' }),
+  }),
   flashDensityFormula: z.enum(['anderson', 'iec'], { error: "flashDensityFormula must be 'anderson' or 'iec'" }),
   cutoffProbability: num('cutoff probability').refine((v) => v > 0 && v <= 1e-3, { error: 'cutoff probability must lie in (0, 0.001]' }),
 }).superRefine((a, ctx) => {
@@ -226,12 +271,24 @@ export function deepMerge(base: unknown, over: unknown): unknown {
   return out
 }
 
+/**
+ * Keys of earlier engine versions that no longer mean anything: `damageFactorSigma` (the log-normal
+ * damage factor with mean 1 and no upper bound, replaced by damage ratios on [0, 1] in engine 2).
+ * Stored assumption versions that carry them stay readable; the value is dropped.
+ */
+export const RETIRED_ASSUMPTION_KEYS: readonly string[] = ['damageFactorSigma']
+
+function withoutRetiredKeys(partial: unknown): unknown {
+  if (!isPlainObject(partial)) return partial
+  return Object.fromEntries(Object.entries(partial).filter(([key]) => !RETIRED_ASSUMPTION_KEYS.includes(key)))
+}
+
 /** Merge a partial assumption set over the defaults and validate it; throws EngineInputError. */
 export function parseAssumptions(partial: unknown = {}): AssumptionSet {
   if (partial !== undefined && partial !== null && !isPlainObject(partial)) {
     throw new EngineInputError('Invalid assumption set', ['the assumption set must be an object'])
   }
-  const merged = deepMerge(defaultAssumptions, partial ?? {})
+  const merged = deepMerge(defaultAssumptions, withoutRetiredKeys(partial ?? {}))
   const result = assumptionSetSchema.safeParse(merged)
   if (!result.success) throw new EngineInputError('Invalid assumption set', formatIssues(result.error))
   return result.data

@@ -10,6 +10,8 @@ import { siteRadius, tankRelevantRadius } from './reach'
 import { createStream } from './random'
 import { normalEstimate, scaleEstimate, sumEstimates } from './statistics'
 import { flashesPerYearOnDisc } from './flash-density'
+import { frequencyLosses } from './loss'
+import { estimateSpreadLosses } from './spread-frequency'
 
 export interface FrequencyOptions {
   runSeed: number | string
@@ -30,7 +32,10 @@ export interface TankFrequencyResult {
   direct: Estimate
   sparking: Estimate
   ignition: Estimate
+  /** Loss the tank suffers per year: its own fires and fires spreading to it (MODEL.md §4); PD + BI. */
   expectedAnnualLoss: Estimate
+  expectedAnnualLossPd: Estimate
+  expectedAnnualLossBi: Estimate
   samples: number
   /** True when every figure met the target (or is negligible); false when the sample cap stopped it. */
   converged: boolean
@@ -47,7 +52,7 @@ export interface SiteFrequencyResult {
   /** λ = Ng·πR²·1e-6 flashes per year on that disc. */
   lambdaPerYear: number
   tanks: TankFrequencyResult[]
-  totals: { direct: Estimate; sparking: Estimate; ignition: Estimate; expectedAnnualLoss: Estimate }
+  totals: { direct: Estimate; sparking: Estimate; ignition: Estimate; expectedAnnualLoss: Estimate; expectedAnnualLossPd: Estimate; expectedAnnualLossBi: Estimate }
   samples: number
 }
 
@@ -162,7 +167,11 @@ interface TankSampler {
 export function simulateSiteFrequency(site: SiteInput, assumptions: AssumptionSet, options: FrequencyOptions): SiteFrequencyResult {
   const ps = prepareSite(site, assumptions)
   const radiusM = siteRadius(ps)
-  const tanks = site.tanks.map((tank, t) => estimateTank(ps, t, createStream(options.runSeed, site.id, `frequency/${tank.id}`), options))
+  const estimated = site.tanks.map((tank, t) => estimateTank(ps, t, createStream(options.runSeed, site.id, `frequency/${tank.id}`), options))
+  const losses = frequencyLosses(estimated.map((r) => r.ignition), ps.expectedLoss, estimateSpreadLosses(ps, options.runSeed))
+  const tanks = estimated.map((r, t) => ({
+    ...r, expectedAnnualLoss: losses.tanks[t]!.total, expectedAnnualLossPd: losses.tanks[t]!.propertyDamage, expectedAnnualLossBi: losses.tanks[t]!.businessInterruption,
+  }))
   return {
     siteId: site.id, mode: 'frequency', attachmentModel: ps.attachmentModel, radiusM,
     lambdaPerYear: flashesPerYearOnDisc(ps.flashDensity, radiusM),
@@ -171,7 +180,9 @@ export function simulateSiteFrequency(site: SiteInput, assumptions: AssumptionSe
       direct: sumEstimates(tanks.map((r) => r.direct)),
       sparking: sumEstimates(tanks.map((r) => r.sparking)),
       ignition: sumEstimates(tanks.map((r) => r.ignition)),
-      expectedAnnualLoss: sumEstimates(tanks.map((r) => r.expectedAnnualLoss)),
+      expectedAnnualLoss: losses.site.total,
+      expectedAnnualLossPd: losses.site.propertyDamage,
+      expectedAnnualLossBi: losses.site.businessInterruption,
     },
     samples: tanks.reduce((n, r) => n + r.samples, 0),
   }
@@ -457,7 +468,10 @@ function tankResult(ps: PreparedSite, t: number, e: Combined, samples: number, c
   return {
     tankId: ps.tanks[t]!.id, tag: ps.tanks[t]!.tag,
     direct, sparking, ignition,
-    expectedAnnualLoss: scaleEstimate(ignition, ps.severity[t]!),
+    // Own fires only; simulateSiteFrequency adds the spread and the PD / BI split (loss.ts).
+    expectedAnnualLoss: scaleEstimate(ignition, ps.expectedLoss[t]!.total),
+    expectedAnnualLossPd: scaleEstimate(ignition, ps.expectedLoss[t]!.propertyDamage),
+    expectedAnnualLossBi: scaleEstimate(ignition, ps.expectedLoss[t]!.businessInterruption),
     samples, converged,
     drivingComponentClass: drivingClass(ps, t, e.byClass),
   }

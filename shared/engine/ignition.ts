@@ -33,12 +33,7 @@ export function ignitionGivenDirect(tank: TankInput, a: AssumptionSet): number {
   return tank.vapourControl ? base * a.vapourControlFactor : base
 }
 
-/** Severity: replacement + contents + clean-up + interruption (before the damage factor). */
+/** Value at risk: replacement + contents + clean-up + interruption — the most one tank's fire can cost. */
 export function tankSeverity(tank: TankInput): number {
   return tank.replacementValue + tank.contentsValue + tank.cleanupCost + tank.interruptionCost
-}
-
-/** A log-normal damage factor with mean 1: exp(σZ − σ²/2) for a standard normal Z. */
-export function damageFactor(standardNormal: number, sigma: number): number {
-  return Math.exp(sigma * standardNormal - 0.5 * sigma * sigma)
 }

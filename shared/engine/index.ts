@@ -2,7 +2,7 @@
 // database, so the same code runs in the server, in worker threads and in the browser.
 
 /** Bumped whenever a change can alter any number the engine produces for the same input and seed. */
-export const ENGINE_VERSION = '1.0.0'
+export const ENGINE_VERSION = '2.0.0'
 
 export type {
   ComponentClass, TankMaterial, Contents, StructureKind, ComponentInput, TankInput, StructureInput, SiteInput,
@@ -28,13 +28,18 @@ export {
 export { ruskVelocityFactor, ruskCoupling, couplingCoefficient, inducedPotentialKv, RUSK_Z0_OHM, SPEED_OF_LIGHT_M_PER_S } from './induction'
 export { componentSparkingProbability, classSparkingProbability, combinedSparkingProbability } from './sparking'
 export { ignitionGivenSpark, ignitionGivenDirect, tankSeverity, hasInducedSparking } from './ignition'
+export type { LossComponent, DamageRatio, FireSpread, TankLoss, SpreadNeighbour, SpreadTable, FrequencyLosses } from './loss'
+export {
+  LOSS_COMPONENTS, PROPERTY_COMPONENTS, componentValues, betaShape, damageRatioQuantile, burningTankLoss, expectedBurningTankLoss,
+  canBurn, shellDistanceM, spreadProbability, spreadNeighbours, spreadTable, expectedFireLoss, frequencyLosses,
+} from './loss'
 export { normalCdf, normalQuantile, erfc } from './normal'
 export { garwoodInterval, countEstimate, normalEstimate, sumEstimates } from './statistics'
 export { createStream, streamSeed } from './random'
 
 export type { FrequencyOptions, SiteFrequencyResult, TankFrequencyResult } from './frequency'
 export { simulateSiteFrequency } from './frequency'
-export type { YearOptions, SiteYearResult, TankYearResult, YearEventTable } from './years'
+export type { YearOptions, SiteYearResult, TankYearResult, YearEventTable, YearLossSplit } from './years'
 export { simulateSiteYears } from './years'
 export type { YearLossSummary, YearLossTable, ReturnPeriodLoss, ExceedancePoint } from './exceedance'
 export {

@@ -6,6 +6,7 @@ declare module 'jstat' {
     pdf(x: number, ...params: number[]): number
   }
   interface JStatStatic {
+    beta: ContinuousDistribution & { mean(alpha: number, beta: number): number; variance(alpha: number, beta: number): number }
     gamma: ContinuousDistribution
     chisquare: ContinuousDistribution
     lognormal: ContinuousDistribution

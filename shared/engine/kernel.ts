@@ -7,7 +7,9 @@ import type { AssumptionSet } from './assumptions'
 import type { TruncatedCurrentLaw } from './current'
 import { currentLawFromSpec, truncate } from './current'
 import { couplingCoefficient } from './induction'
-import { hasInducedSparking, ignitionGivenDirect, ignitionGivenSpark, tankSeverity } from './ignition'
+import { hasInducedSparking, ignitionGivenDirect, ignitionGivenSpark } from './ignition'
+import type { SpreadTable, TankLoss } from './loss'
+import { expectedBurningTankLoss, expectedFireLoss, spreadTable } from './loss'
 
 /** σ = 0 (sharp threshold) is run as a very steep log-normal: exact except on a set of measure zero. */
 const SHARP_INV_SIGMA = 1e12
@@ -47,7 +49,13 @@ export interface PreparedSite {
   readonly classKind: Int32Array
   readonly pIgnDirect: Float64Array
   readonly pIgnSpark: Float64Array
+  /** Expected loss of a fire that starts at the tank, spread to neighbours included (money). */
   readonly severity: Float64Array
+  /** Expected loss of the tank's own fire, per component and PD / BI (money). */
+  readonly expectedLoss: readonly TankLoss[]
+  /** Neighbours a fire at each tank can reach, with the probability (MODEL.md §4). */
+  readonly spread: SpreadTable
+  readonly damageRatio: AssumptionSet['damageRatio']
   /** y50(I) = I·this: distance at which the tank's sparking probability is 0.5 (no floor). */
   readonly tankSpark50PerKa: Float64Array
   /** y(I) = I·this: beyond it the tank's sparking probability is below the cutoff. */
@@ -72,7 +80,6 @@ export interface PreparedSite {
   readonly strikeB: number
   readonly groundFactor: number
   readonly coupling: number
-  readonly damageSigma: number
   readonly cutoffProbability: number
 }
 
@@ -96,6 +103,8 @@ export function prepareSite(site: SiteInput, a: AssumptionSet): PreparedSite {
   const classes = compileClasses(tanks, a, coupling, objRadius)
   const law = truncate(currentLawFromSpec(lawSpec(a)), a.currentMinKa, a.currentMaxKa)
   const { pairDistance, pairAngle } = pairGeometry(nT, objX, objY)
+  const expectedLoss = tanks.map((t) => expectedBurningTankLoss(t, a))
+  const spread = spreadTable(site, a)
   const partial = {
     pairDistance, pairAngle,
     siteId: site.id, flashDensity: site.flashDensity, attachmentModel: a.attachmentModel, centreX, centreY,
@@ -106,9 +115,10 @@ export function prepareSite(site: SiteInput, a: AssumptionSet): PreparedSite {
     ...classes,
     pIgnDirect: Float64Array.from(tanks, (t) => ignitionGivenDirect(t, a)),
     pIgnSpark: Float64Array.from(tanks, (t) => ignitionGivenSpark(t, a)),
-    severity: Float64Array.from(tanks, (t) => tankSeverity(t)),
+    severity: Float64Array.from(tanks, (_, t) => expectedFireLoss(t, expectedLoss, spread)),
+    expectedLoss, spread, damageRatio: a.damageRatio,
     law, strikeA: a.strikingDistanceA, strikeB: a.strikingDistanceB, groundFactor: a.groundStrikingFactor,
-    coupling, damageSigma: a.damageFactorSigma, cutoffProbability: a.cutoffProbability,
+    coupling, cutoffProbability: a.cutoffProbability,
   }
   return { ...partial, ...sparkScales(partial), ...sparkTables(partial) }
 }

@@ -1,6 +1,7 @@
 // Year mode (MODEL.md §5): simulated years per site. Flashes that can matter are drawn from the
 // thinning envelope; each kept flash strikes or sparks one or several tanks of the site at once,
-// each event may ignite, and each ignition costs the tank's severity × a damage factor.
+// each event may ignite, each ignition costs every loss component its value × a damage ratio on
+// [0, 1], and a fire may spread to neighbouring tanks (loss.ts).
 import type { CountEstimate, SiteInput } from './types'
 import type { AssumptionSet } from './assumptions'
 import type { PreparedSite } from './kernel'
@@ -10,8 +11,7 @@ import type { YearLossSummary } from './exceedance'
 import { attachFlash, prepareSite, siteEventProbabilities, strikeRadius } from './kernel'
 import { buildEnvelope, cellBoundOf, drawCandidate } from './envelope'
 import { createStream, poissonDraw } from './random'
-import { normalQuantile } from './normal'
-import { damageFactor } from './ignition'
+import { burningTankLoss } from './loss'
 import { countEstimate } from './statistics'
 import { siteRadius } from './reach'
 import { flashesPerYearOnDisc } from './flash-density'
@@ -26,11 +26,25 @@ export interface YearOptions { runSeed: number | string; years: number }
  */
 export interface YearEventTable {
   year: Int32Array
+  /** Event loss = property damage + business interruption, over every tank that burned. */
   loss: Float64Array
+  propertyDamage: Float64Array
+  businessInterruption: Float64Array
   tankCount: Int32Array
   tankStart: Int32Array
   tankIndex: Int32Array
   tankLoss: Float64Array
+  tankPropertyDamage: Float64Array
+  tankBusinessInterruption: Float64Array
+  /** 1 where the tank was set alight by a neighbour's fire, 0 by the flash. */
+  tankBySpread: Uint8Array
+}
+
+/** Property damage and business interruption apart, per simulated year. */
+export interface YearLossSplit {
+  yearLosses: Float64Array
+  yearMaxEventLoss: Float64Array
+  summary: YearLossSummary
 }
 
 export interface TankYearResult {
@@ -40,6 +54,10 @@ export interface TankYearResult {
   sparking: CountEstimate
   ignition: CountEstimate
   averageAnnualLoss: { mean: number; se: number }
+  averageAnnualLossPd: { mean: number; se: number }
+  averageAnnualLossBi: { mean: number; se: number }
+  /** Times the tank burned because a neighbour's fire spread to it. */
+  spreadIgnitions: number
 }
 
 export interface SiteYearResult {
@@ -58,6 +76,9 @@ export interface SiteYearResult {
   /** Largest single-event loss per year (for the occurrence exceedance curve). */
   yearMaxEventLoss: Float64Array
   events: YearEventTable
+  /** The same year-loss table for property damage and for business interruption alone. */
+  propertyDamage: YearLossSplit
+  businessInterruption: YearLossSplit
   tanks: TankYearResult[]
   /** Tank events of the site (a flash that strikes or sparks two tanks counts twice), Garwood intervals. */
   totals: { direct: CountEstimate; sparking: CountEstimate; ignition: CountEstimate }
@@ -65,8 +86,9 @@ export interface SiteYearResult {
 }
 
 interface Tally {
-  direct: Float64Array; sparking: Float64Array; ignition: Float64Array
-  eventYear: number[]; eventLoss: number[]; eventTankStart: number[]; eventTankIndex: number[]; eventTankLoss: number[]
+  direct: Float64Array; sparking: Float64Array; ignition: Float64Array; spread: Float64Array
+  eventYear: number[]; eventPd: number[]; eventBi: number[]; eventTankStart: number[]; eventTankIndex: number[]
+  eventTankPd: number[]; eventTankBi: number[]; eventTankBySpread: number[]
 }
 
 /** Simulate `years` years for one site. Deterministic in (site, assumptions, runSeed, years). */
@@ -75,11 +97,14 @@ export function simulateSiteYears(site: SiteInput, assumptions: AssumptionSet, o
   const ps = prepareSite(site, assumptions)
   const env = buildEnvelope(ps)
   const rand = createStream(options.runSeed, site.id, 'years')
+  // Spread draws come from a stream of their own, so switching spread off leaves every other draw unchanged.
+  const spreadRand = createStream(options.runSeed, site.id, 'years/spread')
   const years = options.years
   const tally: Tally = {
-    direct: new Float64Array(ps.nTanks), sparking: new Float64Array(ps.nTanks), ignition: new Float64Array(ps.nTanks),
-    eventYear: [], eventLoss: [], eventTankStart: [], eventTankIndex: [], eventTankLoss: [],
+    direct: new Float64Array(ps.nTanks), sparking: new Float64Array(ps.nTanks), ignition: new Float64Array(ps.nTanks), spread: new Float64Array(ps.nTanks),
+    eventYear: [], eventPd: [], eventBi: [], eventTankStart: [], eventTankIndex: [], eventTankPd: [], eventTankBi: [], eventTankBySpread: [],
   }
+  const burning = new Uint8Array(ps.nTanks)
   // Conditional on their total, the candidates of a Poisson process over Y years fall in
   // independent uniform years: one Poisson draw instead of one per year.
   const candidates = poissonDraw(env.totalRate * years, rand)
@@ -96,7 +121,7 @@ export function simulateSiteYears(site: SiteInput, assumptions: AssumptionSet, o
     if (rand() * cellBoundOf(env, flash.cell) >= anyEvent) continue
     eventFlashes += 1
     drawOutcome(ps.nTanks, probability, none, rand, hit)
-    recordFlash(ps, attached, hit, year, rand, tally)
+    recordFlash(ps, attached, hit, year, rand, spreadRand, burning, tally)
   }
   return siteYearResult(ps, env, years, candidates, eventFlashes, tally)
 }
@@ -119,10 +144,26 @@ function drawOutcome(n: number, p: Float64Array, none: Float64Array, rand: Unifo
   }
 }
 
-/** Count the flash's strikes and sparks, draw ignitions and damage, and record a loss event. */
-function recordFlash(ps: PreparedSite, attached: number, hit: Uint8Array, year: number, rand: UniformStream, tally: Tally): void {
-  let eventLoss = 0
+/**
+ * Count the flash's strikes and sparks, draw ignitions, let the fires spread (one generation: from
+ * the tanks the flash set alight to their neighbours), draw each burning tank's damage, and record
+ * one loss event covering every tank that burned.
+ */
+function recordFlash(ps: PreparedSite, attached: number, hit: Uint8Array, year: number, rand: UniformStream, spreadRand: UniformStream, burning: Uint8Array, tally: Tally): void {
+  let eventPd = 0
+  let eventBi = 0
   let started = false
+  const add = (t: number, u: number, bySpread: boolean) => {
+    const loss = burningTankLoss(ps.tanks[t]!, ps, u)
+    if (!started) { tally.eventTankStart.push(tally.eventTankIndex.length); started = true }
+    tally.eventTankIndex.push(t)
+    tally.eventTankPd.push(loss.propertyDamage)
+    tally.eventTankBi.push(loss.businessInterruption)
+    tally.eventTankBySpread.push(bySpread ? 1 : 0)
+    eventPd += loss.propertyDamage
+    eventBi += loss.businessInterruption
+  }
+  let lit = 0
   for (let t = 0; t < ps.nTanks; t++) {
     if (hit[t] !== 1) continue
     const direct = attached === t
@@ -130,37 +171,64 @@ function recordFlash(ps: PreparedSite, attached: number, hit: Uint8Array, year: 
     else tally.sparking[t]! += 1
     if (rand() >= (direct ? ps.pIgnDirect[t]! : ps.pIgnSpark[t]!)) continue
     tally.ignition[t]! += 1
-    const loss = ps.severity[t]! * damageFactor(normalQuantile(rand()), ps.damageSigma)
-    if (!started) { tally.eventTankStart.push(tally.eventTankIndex.length); started = true }
-    tally.eventTankIndex.push(t)
-    tally.eventTankLoss.push(loss)
-    eventLoss += loss
+    burning[t] = 1
+    lit += 1
+    add(t, rand(), false)
   }
-  if (started) { tally.eventYear.push(year); tally.eventLoss.push(eventLoss) }
+  if (lit > 0 && ps.spread.spreadTank.length > 0) spreadFires(ps, burning, spreadRand, tally, add)
+  burning.fill(0)
+  if (started) { tally.eventYear.push(year); tally.eventPd.push(eventPd); tally.eventBi.push(eventBi) }
+}
+
+/**
+ * Each tank not yet burning catches fire with 1 − Π(1 − p_ij) over the tanks i the flash set alight
+ * (neighbours in index order, one draw each, then one draw for its damage).
+ */
+function spreadFires(ps: PreparedSite, burning: Uint8Array, spreadRand: UniformStream, tally: Tally, add: (t: number, u: number, bySpread: boolean) => void): void {
+  const n = ps.nTanks
+  const escape = new Float64Array(n).fill(1)
+  let reachable = false
+  for (let i = 0; i < n; i++) {
+    if (burning[i] !== 1) continue
+    for (let k = ps.spread.spreadStart[i]!; k < ps.spread.spreadStart[i + 1]!; k++) {
+      const j = ps.spread.spreadTank[k]!
+      if (burning[j] === 1) continue
+      escape[j]! *= 1 - ps.spread.spreadProbability[k]!
+      reachable = true
+    }
+  }
+  if (!reachable) return
+  for (let j = 0; j < n; j++) {
+    if (burning[j] === 1 || escape[j] === 1) continue
+    if (spreadRand() >= 1 - escape[j]!) continue
+    tally.spread[j]! += 1
+    add(j, spreadRand(), true)
+  }
 }
 
 function siteYearResult(ps: PreparedSite, env: Envelope, years: number, candidates: number, eventFlashes: number, tally: Tally): SiteYearResult {
   const events = sortedEvents(tally, years)
-  const yearLosses = new Float64Array(years)
-  const yearMaxEventLoss = new Float64Array(years)
-  for (let e = 0; e < events.year.length; e++) {
-    const y = events.year[e]!
-    yearLosses[y]! += events.loss[e]!
-    if (events.loss[e]! > yearMaxEventLoss[y]!) yearMaxEventLoss[y] = events.loss[e]!
-  }
+  const { yearLosses, yearMaxEventLoss } = yearTable(events.year, events.loss, years)
   const radiusM = siteRadius(ps)
-  const annualLosses = tankAnnualLosses(events, ps.nTanks, years)
+  const annualLosses = tankAnnualLosses(events.year, events.tankStart, events.tankIndex, events.tankLoss, ps.nTanks, years)
+  const annualPd = tankAnnualLosses(events.year, events.tankStart, events.tankIndex, events.tankPropertyDamage, ps.nTanks, years)
+  const annualBi = tankAnnualLosses(events.year, events.tankStart, events.tankIndex, events.tankBusinessInterruption, ps.nTanks, years)
   return {
     siteId: ps.siteId, mode: 'year', attachmentModel: ps.attachmentModel, years, radiusM,
     lambdaPerYear: flashesPerYearOnDisc(ps.flashDensity, radiusM),
     candidateRatePerYear: env.totalRate, candidates, eventFlashes,
     yearLosses, yearMaxEventLoss, events,
+    propertyDamage: yearSplit(events.year, events.propertyDamage, years),
+    businessInterruption: yearSplit(events.year, events.businessInterruption, years),
     tanks: ps.tanks.map((tank, t) => ({
       tankId: tank.id, tag: tank.tag,
       direct: countEstimate(tally.direct[t]!, years),
       sparking: countEstimate(tally.sparking[t]!, years),
       ignition: countEstimate(tally.ignition[t]!, years),
       averageAnnualLoss: annualLosses[t]!,
+      averageAnnualLossPd: annualPd[t]!,
+      averageAnnualLossBi: annualBi[t]!,
+      spreadIgnitions: tally.spread[t]!,
     })),
     totals: {
       direct: countEstimate(sum(tally.direct), years),
@@ -169,6 +237,23 @@ function siteYearResult(ps: PreparedSite, env: Envelope, years: number, candidat
     },
     summary: summariseYearLosses(yearLosses, yearMaxEventLoss),
   }
+}
+
+/** Per simulated year: the sum of the events' losses and the largest one. */
+export function yearTable(eventYear: ArrayLike<number>, eventLoss: ArrayLike<number>, years: number): { yearLosses: Float64Array; yearMaxEventLoss: Float64Array } {
+  const yearLosses = new Float64Array(years)
+  const yearMaxEventLoss = new Float64Array(years)
+  for (let e = 0; e < eventYear.length; e++) {
+    const y = eventYear[e]!
+    yearLosses[y]! += eventLoss[e]!
+    if (eventLoss[e]! > yearMaxEventLoss[y]!) yearMaxEventLoss[y] = eventLoss[e]!
+  }
+  return { yearLosses, yearMaxEventLoss }
+}
+
+function yearSplit(eventYear: ArrayLike<number>, eventLoss: ArrayLike<number>, years: number): YearLossSplit {
+  const t = yearTable(eventYear, eventLoss, years)
+  return { ...t, summary: summariseYearLosses(t.yearLosses, t.yearMaxEventLoss) }
 }
 
 function sum(values: Float64Array): number {
@@ -188,19 +273,26 @@ function sortedEvents(tally: Tally, years: number): YearEventTable {
   const starts = tally.eventTankStart
   const tankTotal = tally.eventTankIndex.length
   const table: YearEventTable = {
-    year: new Int32Array(n), loss: new Float64Array(n), tankCount: new Int32Array(n), tankStart: new Int32Array(n + 1),
+    year: new Int32Array(n), loss: new Float64Array(n), propertyDamage: new Float64Array(n), businessInterruption: new Float64Array(n),
+    tankCount: new Int32Array(n), tankStart: new Int32Array(n + 1),
     tankIndex: new Int32Array(tankTotal), tankLoss: new Float64Array(tankTotal),
+    tankPropertyDamage: new Float64Array(tankTotal), tankBusinessInterruption: new Float64Array(tankTotal), tankBySpread: new Uint8Array(tankTotal),
   }
   let cursor = 0
   for (let rank = 0; rank < n; rank++) {
     const e = order[rank]!
     table.year[rank] = tally.eventYear[e]!
-    table.loss[rank] = tally.eventLoss[e]!
+    table.propertyDamage[rank] = tally.eventPd[e]!
+    table.businessInterruption[rank] = tally.eventBi[e]!
+    table.loss[rank] = tally.eventPd[e]! + tally.eventBi[e]!
     table.tankStart[rank] = cursor
     const end = e + 1 < n ? starts[e + 1]! : tankTotal
     for (let k = starts[e]!; k < end; k++) {
       table.tankIndex[cursor] = tally.eventTankIndex[k]!
-      table.tankLoss[cursor] = tally.eventTankLoss[k]!
+      table.tankPropertyDamage[cursor] = tally.eventTankPd[k]!
+      table.tankBusinessInterruption[cursor] = tally.eventTankBi[k]!
+      table.tankLoss[cursor] = tally.eventTankPd[k]! + tally.eventTankBi[k]!
+      table.tankBySpread[cursor] = tally.eventTankBySpread[k]!
       cursor += 1
     }
     table.tankCount[rank] = cursor - table.tankStart[rank]!
@@ -210,7 +302,8 @@ function sortedEvents(tally: Tally, years: number): YearEventTable {
 }
 
 /** Every tank's average annual loss and its standard error over the simulated years, in one pass over the events. */
-function tankAnnualLosses(events: YearEventTable, nTanks: number, years: number): { mean: number; se: number }[] {
+function tankAnnualLosses(eventYear: Int32Array, tankStart: Int32Array, tankIndex: Int32Array, tankLoss: Float64Array, nTanks: number, years: number): { mean: number; se: number }[] {
+  const events = { year: eventYear, tankStart, tankIndex, tankLoss }
   const sum = new Float64Array(nTanks)
   const sum2 = new Float64Array(nTanks)
   const lastYear = new Int32Array(nTanks).fill(-1)

@@ -5,7 +5,8 @@
 // allocation), so the sites' parts add up to the portfolio's figure.
 import { lossAtReturnPeriod, sortDescending, summariseYearLosses, tailValueAtRisk, type YearLossSummary } from '../engine/exceedance'
 import { technicalPremium, sumBreakdowns, type PremiumBreakdown, type PricingBasis } from './pricing'
-import { applySiteTerms, NO_TERMS, type SiteEvents, type SiteTerms, type YearTable } from './terms'
+import { applySiteTerms, LOSS_PARTS, NO_TERMS, type LossPart, type SiteEvents, type SiteTerms, type YearTable } from './terms'
+import { evaluateLayer, type LayerResult, type PortfolioLayer } from './layers'
 
 export interface SiteLosses {
   siteId: string
@@ -23,6 +24,8 @@ export interface SiteFinancials {
   terms: SiteTerms
   events: number
   averageAnnualLoss: Record<Measure, number>
+  /** The same, for property damage and for business interruption (they add up to the total). */
+  averageAnnualLossSplit: Record<LossPart, Record<Measure, number>>
   /** Standard deviation of the site's annual insured loss, on its own. */
   insuredStandardDeviation: number
   /** The site's own insured aggregate loss and TVaR at the pricing return period (null when the run is too short). */
@@ -36,13 +39,26 @@ export interface SiteFinancials {
   /** Covariance of the site's annual insured loss with the portfolio's, over the portfolio's σ. */
   standardDeviationContribution: number
   premium: PremiumBreakdown
+  /** The premium's lines shared between property damage and interruption by their expected insured loss. */
+  premiumSplit: Record<LossPart, PremiumBreakdown>
 }
 
-export interface LargestEvent { siteId: string, year: number, groundUp: number, afterTerms: number, insured: number }
+export interface LargestEvent {
+  siteId: string, year: number, groundUp: number, afterTerms: number, insured: number
+  /** Property-damage parts (business interruption = total − property damage). */
+  groundUpPd: number, insuredPd: number
+  /** Position of the event in its site's event list. */
+  index: number
+}
 
 export interface PortfolioFinancials {
   years: number
   summaries: Record<Measure, YearLossSummary>
+  /** Property damage and business interruption apart; meaningful only when `hasSplit`. */
+  splitSummaries: Record<LossPart, Record<Measure, YearLossSummary>>
+  /** False when some site's events were stored before the split (total only: all of it counted as property damage). */
+  hasSplit: boolean
+  layers: LayerResult[]
   insuredStandardDeviation: number
   tailReturnPeriodYears: number
   insuredLossAtTail: number | null
@@ -50,7 +66,35 @@ export interface PortfolioFinancials {
   sites: SiteFinancials[]
   largestEvents: LargestEvent[]
   premium: PremiumBreakdown
+  premiumSplit: Record<LossPart, PremiumBreakdown>
   pricing: PricingBasis
+}
+
+const emptyTables = (years: number): Record<Measure, YearTable> => ({
+  groundUp: { yearLosses: new Float64Array(years), yearMaxEventLoss: new Float64Array(years) },
+  afterTerms: { yearLosses: new Float64Array(years), yearMaxEventLoss: new Float64Array(years) },
+  insured: { yearLosses: new Float64Array(years), yearMaxEventLoss: new Float64Array(years) },
+})
+
+const summariseTables = (t: Record<Measure, YearTable>): Record<Measure, YearLossSummary> => ({
+  groundUp: summariseYearLosses(t.groundUp.yearLosses, t.groundUp.yearMaxEventLoss),
+  afterTerms: summariseYearLosses(t.afterTerms.yearLosses, t.afterTerms.yearMaxEventLoss),
+  insured: summariseYearLosses(t.insured.yearLosses, t.insured.yearMaxEventLoss),
+})
+
+/** A breakdown shared between property damage and interruption in proportion to their expected loss. */
+export function splitBreakdown(total: PremiumBreakdown, propertyDamageExpectedLoss: number): Record<LossPart, PremiumBreakdown> {
+  const share = total.expectedLoss > 0 ? propertyDamageExpectedLoss / total.expectedLoss : 1
+  const part = (f: number): PremiumBreakdown => ({
+    expectedLoss: total.expectedLoss * f, riskMeasure: total.riskMeasure * f, riskLoad: total.riskLoad * f,
+    expenses: total.expenses * f, profit: total.profit * f, premium: total.premium * f,
+  })
+  const pd = part(share)
+  const bi: PremiumBreakdown = {
+    expectedLoss: total.expectedLoss - pd.expectedLoss, riskMeasure: total.riskMeasure - pd.riskMeasure, riskLoad: total.riskLoad - pd.riskLoad,
+    expenses: total.expenses - pd.expenses, profit: total.profit - pd.profit, premium: total.premium - pd.premium,
+  }
+  return { propertyDamage: pd, businessInterruption: bi }
 }
 
 interface Sparse { years: Int32Array, losses: Float64Array }
@@ -118,24 +162,33 @@ const weighted = (s: Sparse, w: Map<number, number>) => {
   return sum
 }
 
-/** The whole financial view. `largest` limits the list of largest events. */
-export function computeFinancials(sites: readonly SiteLosses[], years: number, pricing: PricingBasis, largest = 50): PortfolioFinancials {
+/**
+ * The whole financial view. `largest` limits the list of largest events; `layers` are priced on
+ * the portfolio's insured events (after every site's terms and share).
+ */
+export function computeFinancials(sites: readonly SiteLosses[], years: number, pricing: PricingBasis, largest = 50, layers: readonly PortfolioLayer[] = []): PortfolioFinancials {
   if (pricing.returnPeriodYears > years) throw new RangeError(`a return period of ${pricing.returnPeriodYears} years needs at least as many simulated years (the run has ${years})`)
-  const portfolio: Record<Measure, YearTable> = {
-    groundUp: { yearLosses: new Float64Array(years), yearMaxEventLoss: new Float64Array(years) },
-    afterTerms: { yearLosses: new Float64Array(years), yearMaxEventLoss: new Float64Array(years) },
-    insured: { yearLosses: new Float64Array(years), yearMaxEventLoss: new Float64Array(years) },
-  }
-  const partial: (Omit<SiteFinancials, 'tail' | 'standardDeviationContribution' | 'premium'> & { insuredYears: Sparse })[] = []
+  const portfolio = emptyTables(years)
+  const portfolioSplit: Record<LossPart, Record<Measure, YearTable>> = { propertyDamage: emptyTables(years), businessInterruption: emptyTables(years) }
+  const partial: (Omit<SiteFinancials, 'tail' | 'standardDeviationContribution' | 'premium' | 'premiumSplit'> & { insuredYears: Sparse })[] = []
   let events: LargestEvent[] = []
+  const insuredEventYear: number[] = []
+  const insuredEventLoss: number[] = []
+  let hasSplit = true
   for (const site of sites) {
-    const terms = site.terms ?? NO_TERMS
+    const terms = { ...NO_TERMS, ...(site.terms ?? {}) }
     const t = applySiteTerms(site.events, years, terms)
-    for (const m of MEASURES) addInto(portfolio[m], t[m])
+    if (!site.events.propertyDamage && site.events.year.length > 0) hasSplit = false
+    for (const m of MEASURES) {
+      addInto(portfolio[m], t[m])
+      for (const part of LOSS_PARTS) addInto(portfolioSplit[part][m], t.split[part][m])
+    }
+    const splitMeans = (part: LossPart) => ({ groundUp: mean(t.split[part].groundUp.yearLosses), afterTerms: mean(t.split[part].afterTerms.yearLosses), insured: mean(t.split[part].insured.yearLosses) })
     const sorted = sortDescending(t.insured.yearLosses)
     partial.push({
       siteId: site.siteId, hasTerms: site.terms !== null, terms: { ...terms }, events: site.events.year.length,
       averageAnnualLoss: { groundUp: mean(t.groundUp.yearLosses), afterTerms: mean(t.afterTerms.yearLosses), insured: mean(t.insured.yearLosses) },
+      averageAnnualLossSplit: { propertyDamage: splitMeans('propertyDamage'), businessInterruption: splitMeans('businessInterruption') },
       insuredStandardDeviation: standardDeviation(t.insured.yearLosses),
       insuredLossAtReturnPeriod: lossAtReturnPeriod(sorted, pricing.returnPeriodYears),
       insuredTailValueAtRisk: tailValueAtRisk(sorted, pricing.returnPeriodYears),
@@ -143,16 +196,15 @@ export function computeFinancials(sites: readonly SiteLosses[], years: number, p
       deductibleReachedShare: years ? t.deductibleReachedYears / years : 0,
       insuredYears: sparse(t.insured.yearLosses),
     })
+    const pdOf = site.events.propertyDamage ?? site.events.loss
     for (let k = 0; k < site.events.year.length; k++) {
-      events.push({ siteId: site.siteId, year: site.events.year[k]!, groundUp: site.events.loss[k]!, afterTerms: t.eventAfterTerms[k]!, insured: t.eventInsured[k]! })
+      events.push({ siteId: site.siteId, year: site.events.year[k]!, groundUp: site.events.loss[k]!, afterTerms: t.eventAfterTerms[k]!, insured: t.eventInsured[k]!, groundUpPd: pdOf[k]!, insuredPd: t.eventInsuredPd[k]!, index: k })
+      if (t.eventInsured[k]! > 0) { insuredEventYear.push(site.events.year[k]!); insuredEventLoss.push(t.eventInsured[k]!) }
     }
     if (events.length > 20 * largest + 1000) events = topEvents(events, largest)
   }
-  const summaries = {
-    groundUp: summariseYearLosses(portfolio.groundUp.yearLosses, portfolio.groundUp.yearMaxEventLoss),
-    afterTerms: summariseYearLosses(portfolio.afterTerms.yearLosses, portfolio.afterTerms.yearMaxEventLoss),
-    insured: summariseYearLosses(portfolio.insured.yearLosses, portfolio.insured.yearMaxEventLoss),
-  }
+  const summaries = summariseTables(portfolio)
+  const splitSummaries = { propertyDamage: summariseTables(portfolioSplit.propertyDamage), businessInterruption: summariseTables(portfolioSplit.businessInterruption) }
   const S = portfolio.insured.yearLosses
   const meanS = mean(S)
   const sigmaS = standardDeviation(S)
@@ -173,16 +225,25 @@ export function computeFinancials(sites: readonly SiteLosses[], years: number, p
     const riskMeasure = pricing.method === 'std_dev' ? standardDeviationContribution
       : pricing.method === 'tvar' ? tvarContribution
         : tvarContribution - site.averageAnnualLoss.insured
-    return { ...site, tail, standardDeviationContribution, premium: technicalPremium(site.averageAnnualLoss.insured, riskMeasure, pricing) }
+    const premium = technicalPremium(site.averageAnnualLoss.insured, riskMeasure, pricing)
+    return { ...site, tail, standardDeviationContribution, premium, premiumSplit: splitBreakdown(premium, site.averageAnnualLossSplit.propertyDamage.insured) }
   })
+  const premium = sumBreakdowns(out.map(s => s.premium))
+  const portfolioEvents = { year: Int32Array.from(insuredEventYear), loss: Float64Array.from(insuredEventLoss) }
   return {
-    years, summaries, insuredStandardDeviation: sigmaS,
+    years, summaries, splitSummaries, hasSplit,
+    layers: layers.map(l => evaluateLayer(l, portfolioEvents, years, pricing)),
+    insuredStandardDeviation: sigmaS,
     tailReturnPeriodYears: pricing.returnPeriodYears,
     insuredLossAtTail: lossAtReturnPeriod(sortedS, pricing.returnPeriodYears),
     insuredTailValueAtRisk: portfolioTvar,
     sites: out,
     largestEvents: topEvents(events, largest),
-    premium: sumBreakdowns(out.map(s => s.premium)),
+    premium,
+    premiumSplit: {
+      propertyDamage: sumBreakdowns(out.map(s => s.premiumSplit.propertyDamage)),
+      businessInterruption: sumBreakdowns(out.map(s => s.premiumSplit.businessInterruption)),
+    },
     pricing: { ...pricing },
   }
 }

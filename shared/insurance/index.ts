@@ -2,3 +2,4 @@
 export * from './terms'
 export * from './pricing'
 export * from './financials'
+export * from './layers'

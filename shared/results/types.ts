@@ -29,6 +29,11 @@ export interface HeadlineFigures {
   /** Mean of the losses beyond the `tailReturnPeriodYears` loss (tail value-at-risk). */
   tailValueAtRisk: RangedFigure
   tailReturnPeriodYears: number
+  /**
+   * The average annual loss as property damage (replacement + contents + clean-up) and business
+   * interruption; null for runs made before the split (total only). Absent: not applicable.
+   */
+  averageAnnualLossSplit?: { propertyDamage: number; businessInterruption: number } | null
 }
 
 /** How a metric's values are written: with "/yr" and "once in N years", as money, or as a share. */

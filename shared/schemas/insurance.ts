@@ -1,6 +1,7 @@
 // Policy terms and the financial view: the zod schemas used by the terms editor, the routes and the import.
 import { z } from 'zod'
 import { RISK_LOAD_METHODS } from '../insurance/pricing'
+import { LAYER_KINDS } from '../insurance/layers'
 
 /** Largest amount a numeric(16, 2) column holds. */
 const MAX_MONEY = 99_999_999_999_999
@@ -14,6 +15,8 @@ export const siteTermsSchema = z.object({
   occurrenceLimit: limit('The occurrence limit'),
   aggregateDeductible: amount('The aggregate deductible'),
   aggregateLimit: limit('The aggregate limit'),
+  /** Business-interruption waiting period as money per occurrence; absent in older clients and files: 0. */
+  interruptionDeductible: amount('The interruption deductible (waiting period)').default(0),
   share: z.number('The share is a number from 0 to 1.').min(0, 'The share is 0 % or more.').max(1, 'The share is 100 % or less.'),
 })
 export type SiteTermsInput = z.infer<typeof siteTermsSchema>
@@ -27,9 +30,22 @@ export const termsSetCreateSchema = z.object({
   description: z.string().trim().max(2000, 'At most 2,000 characters.').default(''),
 })
 
+/** A layer on the portfolio's insured loss: per-occurrence excess of loss or annual aggregate. */
+export const layerSchema = z.object({
+  name: z.string().trim().min(1, 'Give the layer a name.').max(200, 'At most 200 characters.'),
+  kind: z.enum(LAYER_KINDS, 'A layer is per occurrence or annual aggregate.'),
+  attachment: amount('The attachment'),
+  limit: limit('The layer limit'),
+})
+export type LayerInput = z.infer<typeof layerSchema>
+
+export const layersSchema = z.array(layerSchema).max(20, 'At most 20 layers per terms version.')
+
 export const termsVersionSaveSchema = z.object({
   note: z.string().trim().max(500, 'At most 500 characters.').default(''),
   sites: termsRowsSchema,
+  /** Absent: the version's layers stay as they are. */
+  layers: layersSchema.optional(),
 })
 
 export const termsIdParams = z.object({ id: z.uuid('Unknown terms.') })

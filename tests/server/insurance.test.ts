@@ -156,7 +156,7 @@ describe('financial view of a hand-made run', () => {
     expect(res.status).toBe(200)
     const wb = new ExcelJS.Workbook()
     await wb.xlsx.load(await res.arrayBuffer())
-    expect(wb.worksheets.map(w => w.name)).toEqual(['Summary', 'Sites', 'Premium', 'Exceedance'])
+    expect(wb.worksheets.map(w => w.name)).toEqual(['Summary', 'Sites', 'Premium', 'Exceedance', 'Layers', 'Largest events'])
     const summary = wb.getWorksheet('Summary')!
     const labels = new Map<string, unknown>()
     summary.eachRow(r => labels.set(String(r.getCell(1).value), r.getCell(2).value))
@@ -169,8 +169,99 @@ describe('financial view of a hand-made run', () => {
     sites.eachRow((r, i) => { if (i > 1) names.push(r.getCell(2).value) })
     expect(names).toContain('\'=HYPERLINK("x")') // OWASP: a leading apostrophe stops the formula
     const premium = wb.getWorksheet('Premium')!
-    const total = premium.getRow(premium.rowCount)
+    // The last three rows: the total, then its PD and BI parts.
+    const total = premium.getRow(premium.rowCount - 2)
     expect(total.getCell(2).value).toBe('Total')
-    expect(Number(total.getCell(8).value)).toBeCloseTo((102 + 0.1 * 435) / 0.7, 6)
+    expect(total.getCell(3).value).toBe('total')
+    expect(Number(total.getCell(9).value)).toBeCloseTo((102 + 0.1 * 435) / 0.7, 6)
+    // Every hand-made loss is property damage (no BI part given): PD carries the whole premium.
+    expect(Number(premium.getRow(premium.rowCount - 1).getCell(9).value)).toBeCloseTo((102 + 0.1 * 435) / 0.7, 6)
+    expect(Number(premium.getRow(premium.rowCount).getCell(9).value)).toBe(0)
+  })
+})
+
+describe('property damage, interruption and layers on a hand-made run', () => {
+  // Ten simulated years. Site A events (year, loss, of which PD): (0, 1000, 600), (3, 500, 100).
+  // Site B: (3, 800, 800). Terms on A: no occurrence deductible, BI waiting period 300, share 100 %.
+  let runId: string
+  let versionId: string
+  const q = 'returnPeriodYears=5&method=std_dev&factor=0&expenseRatio=0.2&profitRatio=0'
+
+  beforeAll(async () => {
+    runId = await insertHandMadeRun(pool, { organisationId: org, portfolioId, assumptionVersionId, years: 10, siteEvents: { [siteA]: [[0, 1000, 600], [3, 500, 100]], [siteB]: [[3, 800, 800]] } })
+    const { rows } = await pool.query(`SELECT v.id FROM policy_terms_versions v JOIN policy_terms_sets s ON s.id = v.terms_set_id WHERE s.organisation_id = $1 ORDER BY v.version DESC LIMIT 1`, [org])
+    const put = await underwriter.request('PUT', `/api/policy-terms-versions/${rows[0].id}`, {
+      note: 'Layers', sites: [{ siteId: siteA, occurrenceDeductible: 0, occurrenceLimit: null, aggregateDeductible: 0, aggregateLimit: null, interruptionDeductible: 300, share: 1 }],
+      layers: [
+        { name: 'Per-occurrence 500 xs 600', kind: 'occurrence', attachment: 600, limit: 500 },
+        { name: 'Aggregate 1000 xs 1000', kind: 'aggregate', attachment: 1000, limit: 1000 },
+      ],
+    })
+    expect(put.status, await put.clone().text()).toBe(200)
+    versionId = (await put.json()).version.id
+  })
+
+  it('keeps the layers with the version and refuses a bad one', async () => {
+    const v = await (await viewer.get(`/api/policy-terms-versions/${versionId}`)).json()
+    expect(v.layers.map((l: { name: string }) => l.name)).toEqual(['Per-occurrence 500 xs 600', 'Aggregate 1000 xs 1000'])
+    const bad = await underwriter.request('PUT', `/api/policy-terms-versions/${versionId}`, { note: '', sites: [], layers: [{ name: 'x', kind: 'occurrence', attachment: -1, limit: 0 }] })
+    expect(bad.status).toBe(400)
+    expect((await analyst.request('PUT', `/api/policy-terms-versions/${versionId}`, { note: '', sites: [], layers: [] })).status).toBe(403)
+  })
+
+  it('splits PD and BI, applies the waiting period and prices the layers from the stored events', async () => {
+    const res = await viewer.get(`/api/runs/${runId}/financial?${q}&termsVersionId=${versionId}`)
+    expect(res.status, await res.clone().text()).toBe(200)
+    const v = await res.json()
+    expect(v.hasSplit).toBe(true)
+    // Ground-up PD (600 + 100 + 800) / 10 = 150, BI (400 + 400) / 10 = 80, total 230.
+    expect(v.portfolio.propertyDamage.groundUp.averageAnnualLoss).toBe(150)
+    expect(v.portfolio.businessInterruption.groundUp.averageAnnualLoss).toBe(80)
+    expect(v.portfolio.groundUp.averageAnnualLoss).toBe(230)
+    // Insured: A (600 + 100) + (100 + 100) after the 300 waiting period; B 800 in full (no terms). BI insured (100 + 100) / 10 = 20.
+    expect(v.portfolio.businessInterruption.insured.averageAnnualLoss).toBeCloseTo(20, 9)
+    expect(v.portfolio.insured.averageAnnualLoss).toBeCloseTo(170, 9) // (700 + 200 + 800) / 10
+    // Insured events: 700 (year 0), 200 and 800 (year 3).
+    // Occurrence 500 xs 600: 100 + 200 = 300 over 10 years = 30; attaches in 2 years of 10; never exhausted (needs 1100).
+    const [occ, agg] = v.layers
+    expect(occ.expectedLoss).toBeCloseTo(30, 9)
+    expect(occ.attachmentProbability).toBe(0.2)
+    expect(occ.exhaustionProbability).toBe(0)
+    // Aggregate 1000 xs 1000: year totals 700 and 1000 → nothing (1000 does not exceed 1000).
+    expect(agg.expectedLoss).toBe(0)
+    expect(agg.attachmentProbability).toBe(0)
+    // Premium with no risk load and 20 % expenses: 30 / 0.8 = 37.5.
+    expect(occ.premium.premium).toBeCloseTo(37.5, 9)
+    for (const l of v.layers) expect(Math.max(0, ...l.summary.occurrenceCurve.map((p: { loss: number }) => p.loss))).toBeLessThanOrEqual(l.layer.limit)
+    // Largest event: A's 1000 (PD 600).
+    expect(v.largestEvents[0]).toMatchObject({ groundUp: 1000, groundUpPd: 600, insured: 700 })
+  })
+
+  it('the workbook carries the same figures as the screen', async () => {
+    const view = await (await viewer.get(`/api/runs/${runId}/financial?${q}&termsVersionId=${versionId}`)).json()
+    const res = await underwriter.get(`/api/runs/${runId}/financial-workbook?${q}&termsVersionId=${versionId}`)
+    const wb = new ExcelJS.Workbook()
+    await wb.xlsx.load(await res.arrayBuffer())
+    const labels = new Map<string, unknown>()
+    wb.getWorksheet('Summary')!.eachRow(r => labels.set(String(r.getCell(1).value), r.getCell(2).value))
+    const currency = view.currency
+    expect(labels.get(`Average annual loss, ground-up, PD (${currency}/yr)`)).toBe(view.portfolio.propertyDamage.groundUp.averageAnnualLoss)
+    expect(labels.get(`Average annual loss, insurer's share, BI (${currency}/yr)`)).toBe(view.portfolio.businessInterruption.insured.averageAnnualLoss)
+    const layers = wb.getWorksheet('Layers')!
+    expect(layers.getRow(2).getCell(1).value).toBe('Per-occurrence 500 xs 600')
+    expect(layers.getRow(2).getCell(5).value).toBe(view.layers[0].expectedLoss)
+    expect(layers.getRow(2).getCell(14).value).toBe(view.layers[0].premium.premium)
+    const largest = wb.getWorksheet('Largest events')!
+    expect(largest.getRow(2).getCell(3).value).toBe(view.largestEvents[0].groundUp)
+    expect(largest.getRow(2).getCell(4).value).toBe(view.largestEvents[0].groundUpPd)
+  })
+
+  it('reads a run stored before the split as total only', async () => {
+    const old = await insertHandMadeRun(pool, { organisationId: org, portfolioId, assumptionVersionId, years: 10, engine1: true, siteEvents: { [siteA]: [[0, 1000]], [siteB]: [[3, 800]] } })
+    const v = await (await viewer.get(`/api/runs/${old}/financial?${q}&termsVersionId=${versionId}`)).json()
+    expect(v.hasSplit).toBe(false)
+    expect(v.portfolio.groundUp.averageAnnualLoss).toBe(180) // (1000 + 800) / 10
+    // All of it counted as property damage: the BI waiting period does not apply; A 1000, B 800 in full.
+    expect(v.portfolio.insured.averageAnnualLoss).toBe(180)
   })
 })

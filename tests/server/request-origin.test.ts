@@ -3,7 +3,8 @@
 // on another site (or another port of this host) cannot invite an admin. Clients that send neither
 // Origin nor Sec-Fetch-Site (scripts, these tests) keep working.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
-import { Client, createOrganisation, memberClient } from '../support/accounts'
+import type { Client} from '../support/accounts';
+import { createOrganisation, memberClient } from '../support/accounts'
 import { testPool } from '../support/db'
 
 const pool = testPool()

@@ -3,12 +3,34 @@
 import type pg from 'pg'
 import { encodeEvents } from '../../server/runs/events-codec'
 
-/** Packs events (year, loss), one tank per event, as the year mode stores them. */
-export function packEvents(events: [number, number][]): Buffer {
+/**
+ * Packs events (year, loss[, property-damage part]), one tank per event, as the year mode stores
+ * them. Without the third element the whole loss is property damage.
+ */
+export function packEvents(events: ([number, number] | [number, number, number])[]): Buffer {
+  const pd = Float64Array.from(events.map(e => e[2] ?? e[1]))
   return encodeEvents({
     year: Int32Array.from(events.map(e => e[0])), loss: Float64Array.from(events.map(e => e[1])),
     tankStart: Int32Array.from({ length: events.length + 1 }, (_, i) => i), tankIndex: new Int32Array(events.length), tankLoss: Float64Array.from(events.map(e => e[1])),
+    split: { propertyDamage: pd, tankPropertyDamage: pd, tankBySpread: new Uint8Array(events.length) },
   })
+}
+
+/** The layout engine 1 stored (no PD / BI split), for checking that old runs stay readable. */
+export function packEventsEngine1(events: [number, number][]): Buffer {
+  const n = events.length
+  const pad = (b: number) => (b + 7) & ~7
+  const buf = Buffer.alloc(8 + pad(4 * n) + 8 * n + pad(4 * (n + 1)) + pad(4 * n) + 8 * n)
+  buf.writeUInt32LE(n, 0)
+  buf.writeUInt32LE(n, 4)
+  let o = 8
+  events.forEach((e, i) => buf.writeInt32LE(e[0], o + 4 * i)); o += pad(4 * n)
+  events.forEach((e, i) => buf.writeDoubleLE(e[1], o + 8 * i)); o += 8 * n
+  for (let i = 0; i <= n; i++) buf.writeInt32LE(i, o + 4 * i)
+  o += pad(4 * (n + 1))
+  o += pad(4 * n) // tank index 0 for every event
+  events.forEach((e, i) => buf.writeDoubleLE(e[1], o + 8 * i))
+  return buf
 }
 
 export interface HandMadeRun {
@@ -16,8 +38,10 @@ export interface HandMadeRun {
   portfolioId: string
   assumptionVersionId: string
   years: number
-  /** site id → events (simulated year, ground-up loss) */
-  siteEvents: Record<string, [number, number][]>
+  /** site id → events (simulated year, ground-up loss[, its property-damage part]) */
+  siteEvents: Record<string, ([number, number] | [number, number, number])[]>
+  /** Store the events in engine 1's layout (total only). */
+  engine1?: boolean
   names?: Record<string, string>
 }
 
@@ -36,7 +60,7 @@ export async function insertHandMadeRun(pool: pg.Pool, r: HandMadeRun): Promise<
       `INSERT INTO run_site_results (run_id, site_id, radius_m, lambda_per_year, direct_rate, direct_lo, direct_hi, sparking_rate, sparking_lo, sparking_hi,
         ignition_rate, ignition_lo, ignition_hi, expected_annual_loss, expected_annual_loss_lo, expected_annual_loss_hi, direct_se, sparking_se, ignition_se,
         expected_annual_loss_se, samples, events)
-       VALUES ($1, $2, 1000, 1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, $3, $4)`, [run.id, siteId, r.years, packEvents(events)])
+       VALUES ($1, $2, 1000, 1, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, 0, $3, $4)`, [run.id, siteId, r.years, r.engine1 ? packEventsEngine1(events.map(e => [e[0], e[1]])) : packEvents(events)])
   }
   return run.id as string
 }

@@ -64,6 +64,7 @@ describe('properties over random event tables (definition of deductibles and lim
     occurrenceLimit: rand() < 0.3 ? null : 1000 + Math.round(rand() * 50_000),
     aggregateDeductible: Math.round(rand() * 10_000),
     aggregateLimit: rand() < 0.3 ? null : 2000 + Math.round(rand() * 80_000),
+    interruptionDeductible: 0,
     share: Math.round(rand() * 100) / 100,
   })
 

@@ -1,11 +1,11 @@
 // PUT /api/policy-terms-versions/:id — replace the version's site rows (the whole table, as the
-// editor sends it). A version no run has recorded changes in place; a recorded one stays as it is
+// editor sends it) and, when given, its layers on the portfolio. A version no run has recorded changes in place; a recorded one stays as it is
 // and the rows become the set's next version.
 import { eq } from 'drizzle-orm'
 import { termsIdParams, termsVersionSaveSchema } from '~~/shared/schemas/insurance'
 import { useDb } from '~~/server/db'
 import { policyTermsVersions } from '~~/server/db/schema'
-import { addTermsVersion, findTermsVersion, portfolioSiteIds, writeTermsRows } from '~~/server/insurance/terms-store'
+import { addTermsVersion, findTermsVersion, layersOf, portfolioSiteIds, writeLayers, writeTermsRows } from '~~/server/insurance/terms-store'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })
@@ -20,14 +20,17 @@ export default defineEventHandler(async (event) => {
     // Re-read under lock: a run may have recorded this version meanwhile.
     const [current] = await tx.select().from(policyTermsVersions).where(eq(policyTermsVersions.id, id)).for('update')
     const audit = { organisationId: member.organisationId, userId: member.user.id, entity: 'policy_terms_version' }
+    const layersBefore = await layersOf(tx, id)
+    const layers = body.layers ?? layersBefore
     if (current!.usedByRun) {
-      const version = await addTermsVersion(tx, row.set.id, member.user.id, body.note || `Edited from version ${current!.version}`, body.sites)
-      await recordAudit({ ...audit, action: 'create', entityId: version.id, before: { version: current!.version }, after: { version: version.version, sites: body.sites.length } }, { tx, event })
+      const version = await addTermsVersion(tx, row.set.id, member.user.id, body.note || `Edited from version ${current!.version}`, body.sites, layers)
+      await recordAudit({ ...audit, action: 'create', entityId: version.id, before: { version: current!.version, layers: layersBefore }, after: { version: version.version, sites: body.sites.length, layers } }, { tx, event })
       return { version, createdNewVersion: true }
     }
     await writeTermsRows(tx, id, body.sites)
+    await writeLayers(tx, id, layers)
     const [version] = await tx.update(policyTermsVersions).set({ note: body.note || current!.note, updatedAt: new Date() }).where(eq(policyTermsVersions.id, id)).returning()
-    await recordAudit({ ...audit, action: 'update', entityId: id, before: { version: current!.version }, after: { version: current!.version, sites: body.sites.length } }, { tx, event })
+    await recordAudit({ ...audit, action: 'update', entityId: id, before: { version: current!.version, layers: layersBefore }, after: { version: current!.version, sites: body.sites.length, layers } }, { tx, event })
     return { version: version!, createdNewVersion: false }
   })
 })

@@ -3,7 +3,7 @@
 // the insurer's share); it is frozen once a run has recorded it, and editing it then makes the next
 // version. Money in the organisation's currency (numeric, 2 decimals); null limits mean unlimited.
 import { sql } from 'drizzle-orm'
-import { boolean, check, index, integer, numeric, pgTable, primaryKey, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { boolean, check, index, integer, numeric, pgEnum, pgTable, primaryKey, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
 import { runs } from './runs'
@@ -43,14 +43,41 @@ export const policySiteTerms = pgTable('policy_site_terms', {
   occurrenceLimit: money('occurrence_limit'),
   aggregateDeductible: money('aggregate_deductible').notNull().default(0),
   aggregateLimit: money('aggregate_limit'),
+  /**
+   * Business-interruption waiting period as a money deductible on each occurrence's interruption
+   * part (a waiting period of D days is entered as D × the daily interruption value).
+   */
+  interruptionDeductible: money('interruption_deductible').notNull().default(0),
   /** The insurer's share, 0–1. */
   share: numeric('share', { precision: 7, scale: 6, mode: 'number' }).notNull().default(1),
 }, t => [
   primaryKey({ columns: [t.versionId, t.siteId] }),
   index('policy_site_terms_site_idx').on(t.siteId),
   check('policy_site_terms_deductibles_nonnegative', sql`${t.occurrenceDeductible} >= 0 AND ${t.aggregateDeductible} >= 0`),
+  check('policy_site_terms_interruption_deductible_nonnegative', sql`${t.interruptionDeductible} >= 0`),
   check('policy_site_terms_limits_positive', sql`coalesce(${t.occurrenceLimit}, 1) > 0 AND coalesce(${t.aggregateLimit}, 1) > 0`),
   check('policy_site_terms_share_range', sql`${t.share} BETWEEN 0 AND 1`),
+])
+
+export const policyLayerKind = pgEnum('policy_layer_kind', ['occurrence', 'aggregate'])
+
+/**
+ * Layers on the portfolio's insured loss (after every site's terms and share), several per terms
+ * version: per-occurrence excess of loss (each event) or annual aggregate (each year's total).
+ * The layer pays min(limit, max(0, loss − attachment)); a null limit means unlimited.
+ */
+export const policyLayers = pgTable('policy_layers', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  versionId: uuid('version_id').notNull().references(() => policyTermsVersions.id, { onDelete: 'cascade' }),
+  position: integer('position').notNull(),
+  name: text('name').notNull(),
+  kind: policyLayerKind('kind').notNull(),
+  attachment: money('attachment').notNull(),
+  limit: money('limit'),
+}, t => [
+  uniqueIndex('policy_layers_version_position_unique').on(t.versionId, t.position),
+  check('policy_layers_attachment_nonnegative', sql`${t.attachment} >= 0`),
+  check('policy_layers_limit_positive', sql`coalesce(${t.limit}, 1) > 0`),
 ])
 
 /** The terms version a run recorded at its start (none when the portfolio had no terms then). */

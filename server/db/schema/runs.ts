@@ -110,6 +110,15 @@ const figureColumns = () => ({
   expectedAnnualLossHi: money('expected_annual_loss_hi').notNull(),
 })
 
+/**
+ * Expected annual loss split into property damage (replacement + contents + clean-up) and business
+ * interruption, organisation currency per year. Null for runs of engine 1, which kept the total only.
+ */
+const lossSplitColumns = () => ({
+  expectedAnnualLossPd: money('expected_annual_loss_pd'),
+  expectedAnnualLossBi: money('expected_annual_loss_bi'),
+})
+
 /** Standard errors (frequency mode; year mode: from the counts), so roll-ups can combine them. */
 const standardErrorColumns = () => ({
   directSe: doublePrecision('direct_se').notNull(),
@@ -124,6 +133,7 @@ export const runTankResults = pgTable('run_tank_results', {
   tankId: uuid('tank_id').notNull(),
   tag: text('tag').notNull(),
   ...figureColumns(),
+  ...lossSplitColumns(),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   drivingComponentClass: text('driving_component_class'),
   converged: boolean('converged').notNull(),
@@ -140,6 +150,7 @@ export const runSiteResults = pgTable('run_site_results', {
   radiusM: doublePrecision('radius_m').notNull(),
   lambdaPerYear: doublePrecision('lambda_per_year').notNull(),
   ...figureColumns(),
+  ...lossSplitColumns(),
   ...standardErrorColumns(),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   /** Year mode: the site's summary (AAL, return-period losses, TVaR) and its loss events (packed). */
@@ -155,6 +166,7 @@ export const runSiteResults = pgTable('run_site_results', {
 export const runPortfolioResults = pgTable('run_portfolio_results', {
   runId: uuid('run_id').primaryKey().references(() => runs.id, { onDelete: 'cascade' }),
   ...figureColumns(),
+  ...lossSplitColumns(),
   ...standardErrorColumns(),
   /** Year mode: AAL, aggregate/occurrence losses at 10…1000 years, TVaR and the curves. */
   yearSummary: jsonb('year_summary'),

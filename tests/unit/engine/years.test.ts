@@ -21,15 +21,21 @@ describe('events and year losses', () => {
   })
   it('each event lists its tanks with their own losses', () => {
     const ignitions = new Array(r.tanks.length).fill(0)
+    const bySpread = new Array(r.tanks.length).fill(0)
     for (let e = 0; e < r.events.year.length; e++) {
       const from = r.events.tankStart[e]!
       const to = r.events.tankStart[e + 1]!
       expect(to - from).toBe(r.events.tankCount[e])
       let total = 0
-      for (let k = from; k < to; k++) { total += r.events.tankLoss[k]!; ignitions[r.events.tankIndex[k]!] += 1 }
+      for (let k = from; k < to; k++) {
+        total += r.events.tankLoss[k]!
+        if (r.events.tankBySpread[k] === 1) bySpread[r.events.tankIndex[k]!] += 1
+        else ignitions[r.events.tankIndex[k]!] += 1
+      }
       expect(total).toBeCloseTo(r.events.loss[e]!, 6)
     }
-    r.tanks.forEach((t, i) => expect(t.ignition.count).toBe(ignitions[i]))
+    // Ignitions count the flash's own; tanks set alight by a neighbour's fire are counted apart.
+    r.tanks.forEach((t, i) => { expect(t.ignition.count).toBe(ignitions[i]); expect(t.spreadIgnitions).toBe(bySpread[i]) })
   })
   it('one flash can involve several tanks of the site', () => {
     expect(Math.max(...Array.from(r.events.tankCount))).toBeGreaterThan(1)

@@ -1,7 +1,8 @@
-// GET /api/runs/:id/sites/:siteId — one site of a succeeded run: figures, tanks, event bands, and the
-// site as the run saw it (plan, what-if inputs).
+// GET /api/runs/:id/sites/:siteId — one site of a succeeded run: figures, tanks (with property
+// damage and interruption apart, and the neighbours a tank's fire would most likely reach), event
+// bands, and the site as the run saw it (plan, what-if inputs).
 import { z } from 'zod'
-import { exceedanceSeries, findSucceededRun, headline, siteDetail } from '~~/server/results/queries'
+import { exceedanceSeries, findSucceededRun, headline, lossSplit, runSpreadNeighbours, siteDetail } from '~~/server/results/queries'
 
 const params = z.object({ id: z.uuid('Unknown run.'), siteId: z.uuid('Unknown site.') })
 
@@ -21,8 +22,10 @@ export default defineEventHandler(async (event) => {
     exceedance: exceedanceSeries(detail.result.yearSummary, detail.facts.name),
     eventBands: detail.result.eventBands,
     radiusM: detail.result.radiusM,
+    spread: await runSpreadNeighbours(run, detail.site),
     tanks: detail.tanks.map(t => ({
       tankId: t.tankId, tag: t.tag,
+      lossSplit: lossSplit(t),
       direct: { rate: t.directRate, lo: t.directLo, hi: t.directHi },
       sparking: { rate: t.sparkingRate, lo: t.sparkingLo, hi: t.sparkingHi },
       ignition: { rate: t.ignitionRate, lo: t.ignitionLo, hi: t.ignitionHi },
