@@ -5,10 +5,7 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchBrowser, openGuardedPage, saveScreenshot, type GuardedPage } from '../support/browser'
 import { signInPage } from '../support/browser-session'
-
-// The demo scenario's insurer underwriter (README "Demo sign-ins").
-const UNDERWRITER = 'underwriter@cobaltridge.example'
-const DEMO_PASSWORD = 'stormledger-demo-2026'
+import { DEMO_PASSWORD, DEMO_UNDERWRITER, demoRun } from '../support/demo-run'
 
 let browser: Browser
 let guarded: GuardedPage
@@ -17,22 +14,11 @@ let runId: string
 
 interface LargestEvent { groundUp: number, groundUpPd: number, valueAtRisk: number | null, tanks: { tag: string }[] }
 
-async function demoRun(p: Page): Promise<string> {
-  for (let i = 0; i < 400; i++) {
-    const runs = await p.evaluate(async () => (await fetch('/api/runs')).json()) as { id: string, state: string, mode: string }[]
-    const done = runs.find(r => r.state === 'succeeded' && r.mode === 'year')
-    if (done) return done.id
-    if (runs.length && runs.every(r => r.state === 'failed' || r.state === 'cancelled')) throw new Error('the demo run did not succeed')
-    await p.waitForTimeout(1000)
-  }
-  throw new Error('the demo run did not finish in time')
-}
-
 beforeAll(async () => {
   browser = await launchBrowser()
   guarded = await openGuardedPage(browser)
   page = guarded.page
-  await signInPage(page, inject('baseUrl'), UNDERWRITER, DEMO_PASSWORD)
+  await signInPage(page, inject('baseUrl'), DEMO_UNDERWRITER, DEMO_PASSWORD)
   runId = await demoRun(page)
 }, 480_000)
 afterAll(async () => { await browser?.close() })

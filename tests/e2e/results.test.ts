@@ -2,34 +2,20 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchBrowser, openGuardedPage, saveScreenshot, type GuardedPage } from '../support/browser'
 import { signInPage } from '../support/browser-session'
+import { DEMO_PASSWORD, DEMO_UNDERWRITER, demoRun } from '../support/demo-run'
 import { waitForDrawnChart } from '../support/charts'
 
-// The demo scenario's insurer underwriter (README "Demo sign-ins").
-const UNDERWRITER = 'underwriter@cobaltridge.example'
-const DEMO_PASSWORD = 'stormledger-demo-2026'
 
 let browser: Browser
 let guarded: GuardedPage
 let page: Page
 let runId: string
 
-/** The demo run queued at seeding: waits (from the page, with its session) until it has finished. */
-async function demoRun(p: Page): Promise<string> {
-  for (let i = 0; i < 400; i++) {
-    const runs = await p.evaluate(async () => (await fetch('/api/runs')).json()) as { id: string, state: string }[]
-    const done = runs.find(r => r.state === 'succeeded')
-    if (done) return done.id
-    if (runs.length && runs.every(r => r.state === 'failed' || r.state === 'cancelled')) throw new Error('the demo run did not succeed')
-    await p.waitForTimeout(1000)
-  }
-  throw new Error('the demo run did not finish in time')
-}
-
 beforeAll(async () => {
   browser = await launchBrowser()
   guarded = await openGuardedPage(browser)
   page = guarded.page
-  await signInPage(page, inject('baseUrl'), UNDERWRITER, DEMO_PASSWORD)
+  await signInPage(page, inject('baseUrl'), DEMO_UNDERWRITER, DEMO_PASSWORD)
   runId = await demoRun(page)
 }, 480_000)
 afterAll(async () => { await browser?.close() })

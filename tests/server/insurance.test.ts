@@ -63,7 +63,7 @@ describe('terms editing and roles', () => {
     expect(ok.status).toBe(200)
     expect((await ok.json()).createdNewVersion).toBe(false)
     const read = await (await viewer.get(`/api/policy-terms-versions/${versionId}`)).json()
-    expect(read.sites.find((s: { id: string }) => s.id === siteA).terms).toEqual({ occurrenceDeductible: 80, occurrenceLimit: 400, aggregateDeductible: 100, aggregateLimit: 500, share: 0.5 })
+    expect(read.sites.find((s: { id: string }) => s.id === siteA).terms).toEqual({ occurrenceDeductible: 80, occurrenceLimit: 400, aggregateDeductible: 100, aggregateLimit: 500, interruptionDeductible: 0, share: 0.5 }) // a row saved without a waiting period has none
     expect(read.sites.find((s: { id: string }) => s.id === siteB).terms).toBeNull()
   })
 

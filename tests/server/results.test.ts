@@ -39,7 +39,13 @@ describe('results of a run', () => {
     expect(d.headline.averageAnnualLoss.value).toBe(Number(p.expected_annual_loss))
     // The 100-year aggregate loss is the stored table's entry for T = 100 (common practice: same table read twice).
     expect(d.headline.lossAt100Years.value).toBe(p.year_summary.aggregate.find((r: { returnPeriodYears: number }) => r.returnPeriodYears === 100).loss)
-    expect(d.exceedance.map((s: { kind: string }) => s.kind)).toEqual(['aggregate', 'occurrence'])
+    // Total (aggregate and occurrence), then the aggregate curves of property damage and business interruption.
+    expect(d.exceedance.map((s: { kind: string }) => s.kind)).toEqual(['aggregate', 'occurrence', 'aggregate', 'aggregate'])
+    expect(d.exceedance.map((s: { name: string }) => s.name).slice(2)).toEqual([`${d.run.portfolioName}, property damage`, `${d.run.portfolioName}, business interruption`])
+    // PD + BI = total AAL, stored and shown (hand-worked identity, up to cents rounding of the stored money columns).
+    const { rows: [split] } = await pool.query(`SELECT expected_annual_loss_pd, expected_annual_loss_bi FROM run_portfolio_results WHERE run_id = $1`, [runId])
+    expect(d.headline.averageAnnualLossSplit).toEqual({ propertyDamage: Number(split.expected_annual_loss_pd), businessInterruption: Number(split.expected_annual_loss_bi) })
+    expect(Math.abs(d.headline.averageAnnualLossSplit.propertyDamage + d.headline.averageAnnualLossSplit.businessInterruption - d.headline.averageAnnualLoss.value)).toBeLessThanOrEqual(0.02)
     // Site drivers: their values add up to the total over all 4 sites (frequency of fires adds; common practice).
     const sum = d.drivers.sites.reduce((n: number, s: { value: number }) => n + s.value, 0)
     expect(sum).toBeCloseTo(d.drivers.total, 10)
@@ -53,6 +59,13 @@ describe('results of a run', () => {
     const detail = await (await viewer.get(`/api/runs/${runId}/sites/${hostile.siteId}`)).json()
     expect(detail.tanks).toHaveLength(2)
     expect(detail.eventBands.currentBandsKa.length).toBeGreaterThan(2)
+    // Each tank's PD + BI is its expected annual loss (to the cent of the stored money columns).
+    for (const t of detail.tanks) expect(Math.abs(t.lossSplit.propertyDamage + t.lossSplit.businessInterruption - t.expectedAnnualLoss.rate)).toBeLessThanOrEqual(0.02)
+    // Fire spread is part of the run's assumptions (the defaults): the neighbour lists come with it, most likely first.
+    expect(detail.spread.modelled).toBe(true)
+    for (const list of Object.values(detail.spread.byTank) as { probability: number }[][]) {
+      for (let k = 1; k < list.length; k++) expect(list[k]!.probability).toBeLessThanOrEqual(list[k - 1]!.probability)
+    }
   })
 
   it('workbook: sheets and headers as specified, totals equal the stored results, hostile text stays text', async () => {
