@@ -128,8 +128,8 @@ export async function describeInvitation(event: H3Event, token: string) {
     accountExists: Boolean(user),
     /** Signed in as the invited address: accepting needs only the click. */
     signedInAsInvitee: Boolean(user && signedIn === user.id),
-    /** Signed in as somebody else: that person cannot accept it. */
-    signedInAsOther: Boolean(signedIn && signedIn !== user?.id),
+    /** The address has an account and somebody else is signed in: they cannot accept it. */
+    signedInAsOther: Boolean(user && signedIn && signedIn !== user.id),
   }
 }
 
@@ -148,7 +148,6 @@ export async function acceptInvitation(event: H3Event, token: string, input: { n
     const created = !user
     let signInNow = false
     if (!user) {
-      if (signedIn) throw createError({ statusCode: 403, statusMessage: 'This invitation is for another address. Sign out first to create that account.' })
       if (!input.name) throw createError({ statusCode: 400, statusMessage: 'Enter your name.', data: { fieldErrors: { name: ['Enter your name.'] } } })
       if (!input.password) throw createError({ statusCode: 400, statusMessage: 'Choose a password.', data: { fieldErrors: { password: ['Choose a password.'] } } })
       assertPasswordAllowed(input.password, invitation.email)
@@ -172,12 +171,15 @@ export async function acceptInvitation(event: H3Event, token: string, input: { n
     }, { tx, event })
     return { user: user!, organisationId: invitation.organisationId, role: invitation.role, organisationName, created, signInNow }
   })
-  const session = await getUserSession(event)
-  if (result.signInNow || signedIn) {
-    // Work in the organisation just joined: a new session after a password, the same one otherwise.
+  // Work in the organisation just joined: a new session after a password, the same one when the
+  // invitee was signed in already. Anyone else's session (a new account made while signed in as
+  // somebody) is left as it is.
+  const continues = signedIn !== null && signedIn === result.user.id
+  if (result.signInNow || continues) {
+    const session = await getUserSession(event)
     await startMemberSession(event, result.user, { organisationId: result.organisationId, role: result.role }, result.signInNow ? undefined : session.sessionId)
   }
-  return { ok: true, email: result.user.email, organisationName: result.organisationName, accountCreated: result.created, signedIn: result.signInNow || Boolean(signedIn) }
+  return { ok: true, email: result.user.email, organisationName: result.organisationName, accountCreated: result.created, signedIn: result.signInNow || continues }
 }
 
 /** The existing account's password, checked like a sign-in (throttled, failures recorded). */

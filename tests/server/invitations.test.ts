@@ -117,6 +117,17 @@ describe('invitations', () => {
     expect(await (await person.get('/api/auth/session')).json()).toMatchObject({ organisation: { id: elsewhere }, role: 'viewer' })
   })
 
+  it('creates a new account while somebody else is signed in without touching their session', async () => {
+    const bystander = await memberClient(pool, org, 'viewer')
+    const before = await (await bystander.get('/api/auth/session')).json()
+    const { token } = await invite('fresh.colleague@example.test', 'analyst')
+    expect((await (await bystander.get(`/api/invitations/accept/${token}`)).json()).signedInAsOther).toBe(false)
+    const res = await bystander.post(`/api/invitations/accept/${token}`, { name: 'Fresh Colleague', password: 'storm season passphrase' })
+    expect(res.status).toBe(200)
+    expect((await res.json()).signedIn).toBe(false)
+    expect((await (await bystander.get('/api/auth/session')).json()).user).toEqual(before.user)
+  })
+
   it('refuses to invite an existing member, replaces an open invitation, and can withdraw or resend one', async () => {
     const { email } = await createMember(pool, org, 'viewer')
     expect((await admin.post('/api/invitations', { email, role: 'analyst' })).status).toBe(409)
@@ -139,7 +150,7 @@ describe('invitations', () => {
 
   it('records invitations and acceptances in the audit log', async () => {
     const { rows } = await pool.query(`SELECT action, entity, after FROM audit_events WHERE organisation_id = $1 AND action IN ('invite', 'accept_invitation', 'revoke', 'resend') ORDER BY at`, [org])
-    expect(rows.map(r => r.action)).toEqual(['invite', 'accept_invitation', 'invite', 'invite', 'accept_invitation', 'invite', 'invite', 'revoke', 'resend'])
+    expect(rows.map(r => r.action)).toEqual(['invite', 'accept_invitation', 'invite', 'invite', 'accept_invitation', 'invite', 'accept_invitation', 'invite', 'invite', 'revoke', 'resend'])
     expect(rows[0].after).toEqual({ email: 'new.analyst@example.test', role: 'analyst' })
   })
 
