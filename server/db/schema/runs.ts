@@ -1,6 +1,7 @@
 import { bigint, boolean, customType, doublePrecision, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
+import { sql } from 'drizzle-orm'
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
 
@@ -48,6 +49,8 @@ export const runs = pgTable('runs', {
   /** Frequency mode: stop a tank at this relative standard error. */
   targetRse: doublePrecision('target_rse').notNull(),
   maxSamplesPerTank: integer('max_samples_per_tank').notNull(),
+  /** Frequency mode: the negligible-rate rule (/yr); a sampled figure whose upper bound is below it stops, reported as that bound. 0: off. */
+  negligibleRatePerYear: doublePrecision('negligible_rate_per_year').notNull().default(1e-5),
   /** Year mode: simulated years per site. */
   years: integer('years').notNull(),
   chunkSize: integer('chunk_size').notNull(),
@@ -110,6 +113,16 @@ const figureColumns = () => ({
   expectedAnnualLossHi: money('expected_annual_loss_hi').notNull(),
 })
 
+/**
+ * Year mode: the simulated counts behind the rates (whole numbers; the Garwood interval is on them).
+ * Null in frequency mode.
+ */
+const countColumns = () => ({
+  directCount: bigint('direct_count', { mode: 'number' }),
+  sparkingCount: bigint('sparking_count', { mode: 'number' }),
+  ignitionCount: bigint('ignition_count', { mode: 'number' }),
+})
+
 /** Standard errors (frequency mode; year mode: from the counts), so roll-ups can combine them. */
 const standardErrorColumns = () => ({
   directSe: doublePrecision('direct_se').notNull(),
@@ -124,6 +137,9 @@ export const runTankResults = pgTable('run_tank_results', {
   tankId: uuid('tank_id').notNull(),
   tag: text('tag').notNull(),
   ...figureColumns(),
+  ...countColumns(),
+  /** Figures stopped by the negligible-rate rule ('sparking', 'ignition', 'expectedAnnualLoss'): their hi is an upper bound, lo is 0. */
+  upperBoundFigures: text('upper_bound_figures').array().notNull().default(sql`'{}'::text[]`),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   drivingComponentClass: text('driving_component_class'),
   converged: boolean('converged').notNull(),
@@ -140,6 +156,7 @@ export const runSiteResults = pgTable('run_site_results', {
   radiusM: doublePrecision('radius_m').notNull(),
   lambdaPerYear: doublePrecision('lambda_per_year').notNull(),
   ...figureColumns(),
+  ...countColumns(),
   ...standardErrorColumns(),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   /** Year mode: the site's summary (AAL, return-period losses, TVaR) and its loss events (packed). */
@@ -155,6 +172,7 @@ export const runSiteResults = pgTable('run_site_results', {
 export const runPortfolioResults = pgTable('run_portfolio_results', {
   runId: uuid('run_id').primaryKey().references(() => runs.id, { onDelete: 'cascade' }),
   ...figureColumns(),
+  ...countColumns(),
   ...standardErrorColumns(),
   /** Year mode: AAL, aggregate/occurrence losses at 10…1000 years, TVaR and the curves. */
   yearSummary: jsonb('year_summary'),
