@@ -19,12 +19,14 @@ const WG = [0.129484966168869693270611432679082, 0.27970539148927666790146777142
   0.417959183673469387755102040816327]
 
 export interface DirectQuadratureOptions {
-  /** Stop refining once the error estimate is below this share of the figure (default 1e-4). */
+  /** Stop refining once the error estimate is below this share of the figure (default 1e-3). */
   relativeTolerance?: number
   /** … or below this many strikes per year (default 1e-10 /yr). */
   absoluteTolerancePerYear?: number
   /** Panels of the outer (current) integral before giving up refining (default 400). */
   maxPanels?: number
+  /** Relative tolerance of the inner (distance) integrals (default: a tenth of the outer one). */
+  innerRelativeTolerance?: number
 }
 
 export interface DirectQuadratureResult {
@@ -103,27 +105,34 @@ export function isolatedDirectRadius(ps: PreparedSite, t: number, rs: number): n
 export function directStrikeQuadrature(ps: PreparedSite, t: number, uEdges: ArrayLike<number>, options: DirectQuadratureOptions = {}): DirectQuadratureResult {
   const scale = ps.flashDensity * 1e-6
   if (!(scale > 0)) return { ratePerYear: 0, errorPerYear: 0, evaluations: 0 }
-  const relTol = options.relativeTolerance ?? 1e-4
+  const relTol = options.relativeTolerance ?? 1e-3
   const absTol = (options.absoluteTolerancePerYear ?? 1e-10) / scale
   const maxPanels = options.maxPanels ?? 400
+  const innerRelTol = options.innerRelativeTolerance ?? relTol / 10
   const arcs: ArcScratch = createArcScratch(ps)
   const at = ps.objRadius[t]!
   let evaluations = 0
   // Inner integral in s = r² (equal areas): ∫ 2πr q dr = π ∫ q(√s) ds, with a panel edge at the
   // tank's own radius (inside it the capture height stops changing with r).
-  const areaShare = (lnI: number, err: { value: number }): number => {
+  // An inner integral only has to be good relative to the whole figure (the outer weights sum to 1),
+  // not to its own value, which falls to 0 where a taller neighbour takes over: the inner absolute
+  // tolerance is a share of the figure, from a coarse first pass.
+  let innerAbs = 0
+  const areaShare = (lnI: number, err: { value: number }, innerRel: number): number => {
     const rs = strikeRadius(ps, lnI)
     const d = isolatedDirectRadius(ps, t, rs)
     if (!(d > 0)) return 0
     const d2 = d * d
     const edges = at > 0 && at < d ? [0, at * at, d2] : [0, d2]
     const share = (s: number): number => { evaluations++; return directCaptureFraction(ps, t, rs, Math.sqrt(s), arcs) }
-    const inner = adaptiveIntegral(share, edges, relTol / 10, 1e-7 * d2, 100)
+    const inner = adaptiveIntegral(share, edges, innerRel, Math.max(1e-9 * d2, innerAbs / Math.PI), 100)
     err.value += Math.PI * inner.error
     return Math.PI * inner.value
   }
-  const outer: Integrand = (u, err) => areaShare(ps.law.logQuantile(u), err)
   const edges = Array.from(uEdges)
+  const coarse = adaptiveIntegral((u, err) => areaShare(ps.law.logQuantile(u), err, 1e-3), edges, 1e-2, absTol, 100)
+  innerAbs = innerRelTol * Math.abs(coarse.value)
+  const outer: Integrand = (u, err) => areaShare(ps.law.logQuantile(u), err, innerRelTol)
   const { value, error } = adaptiveIntegral(outer, edges, relTol, absTol, maxPanels)
   return { ratePerYear: scale * value, errorPerYear: scale * error, evaluations }
 }
