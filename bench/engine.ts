@@ -77,7 +77,7 @@ function varianceReductionBench(sites: SiteInput[], a: AssumptionSet): void {
   ratios.sort((x, y) => x - y)
   line('variance reduction: tanks compared', `${ratios.length} (sparking figure)`)
   line('  stratified samples for its SE', `${(stratSamples / 1e6).toFixed(2)} M`)
-  line('  crude samples for the same SE', `${(crudeSparkSamples / 1e6).toFixed(1)} M (sparking), ${(crudeDirectSamples / 1e6).toFixed(0)} M (direct strikes)`)
+  line('  crude samples for the same SE', `${(crudeSparkSamples / 1e6).toFixed(1)} M (sparking), ${(crudeDirectSamples / 1e6).toFixed(0)} M (direct strikes, to match the quadrature's error bound: they are not sampled)`)
   line('  ratio crude / stratified', `portfolio ${fmt(crudeSparkSamples / stratSamples)}×, per tank min ${fmt(ratios[0] ?? 0)}×, median ${fmt(ratios[Math.floor(ratios.length / 2)] ?? 0)}× (target ≥ 20×)`)
 }
 

@@ -1,26 +1,27 @@
 // Command-line entry to the risk engine: reads a JSON document (one site or a list of sites, with an
 // optional partial assumption set merged over the defaults) and prints JSON results.
 //   npm run calc -- <input.json> [--mode frequency|year|quadrature] [--seed N] [--years N]
-//                   [--target-rse X] [--max-samples N] [--events]
+//                   [--target-rse X] [--max-samples N] [--negligible-rate X] [--events]
+// Frequency mode: a figure stopped by the negligible-rate rule carries "upperBoundOnly": true (its hi is an upper bound).
 // The input format is documented in docs/engine.md (example: examples/site.json).
 // Bad input: a message on stderr and exit code 2.
 import { readFileSync } from 'node:fs'
 import {
-  ENGINE_VERSION, EngineInputError, isolatedTankQuadrature, parseAssumptions, parseSite, rollUpFrequency, rollUpYears,
+  DEFAULT_NEGLIGIBLE_RATE_PER_YEAR, ENGINE_VERSION, EngineInputError, isolatedTankQuadrature, parseAssumptions, parseSite, rollUpFrequency, rollUpYears,
   simulateSiteFrequency, simulateSiteYears,
 } from '../shared/engine/index'
 import type { AssumptionSet, SiteInput, SiteYearResult } from '../shared/engine/index'
 
 type Mode = 'frequency' | 'year' | 'quadrature'
 
-interface Options { file: string; mode: Mode; seed: number; years: number; targetRse: number; maxSamples: number; events: boolean }
+interface Options { file: string; mode: Mode; seed: number; years: number; targetRse: number; maxSamples: number; negligibleRate: number; events: boolean }
 
-const USAGE = 'usage: calc <input.json> [--mode frequency|year|quadrature] [--seed N] [--years N] [--target-rse X] [--max-samples N] [--events]'
+const USAGE = 'usage: calc <input.json> [--mode frequency|year|quadrature] [--seed N] [--years N] [--target-rse X] [--max-samples N] [--negligible-rate X] [--events]'
 
 class UsageError extends Error {}
 
 function parseArgs(argv: string[]): Options {
-  const options: Options = { file: '', mode: 'frequency', seed: 1, years: 10_000, targetRse: 0.02, maxSamples: 400_000, events: false }
+  const options: Options = { file: '', mode: 'frequency', seed: 1, years: 10_000, targetRse: 0.02, maxSamples: 400_000, negligibleRate: DEFAULT_NEGLIGIBLE_RATE_PER_YEAR, events: false }
   for (let i = 0; i < argv.length; i++) {
     const arg = argv[i]!
     const value = () => {
@@ -34,6 +35,7 @@ function parseArgs(argv: string[]): Options {
       case '--years': options.years = parseNumber(arg, value(), (n) => Number.isInteger(n) && n >= 1 && n <= 10_000_000, 'a whole number from 1 to 10 000 000'); break
       case '--target-rse': options.targetRse = parseNumber(arg, value(), (n) => n > 0 && n < 1, 'a number between 0 and 1 (e.g. 0.02)'); break
       case '--max-samples': options.maxSamples = parseNumber(arg, value(), (n) => Number.isInteger(n) && n >= 1000, 'a whole number ≥ 1000'); break
+      case '--negligible-rate': options.negligibleRate = parseNumber(arg, value(), (n) => n >= 0 && n <= 1e-3, 'a rate per year from 0 (off) to 0.001'); break
       case '--events': options.events = true; break
       case '--help': case '-h': throw new UsageError(USAGE)
       default:
@@ -108,8 +110,8 @@ function run(o: Options): unknown {
   const { sites, assumptions } = readDocument(o.file)
   const header = { engineVersion: ENGINE_VERSION, mode: o.mode, runSeed: o.seed, assumptions }
   if (o.mode === 'frequency') {
-    const results = sites.map((s) => simulateSiteFrequency(s, assumptions, { runSeed: o.seed, targetRse: o.targetRse, maxSamplesPerTank: o.maxSamples }))
-    return { ...header, targetRse: o.targetRse, sites: results, portfolio: rollUpFrequency(results) }
+    const results = sites.map((s) => simulateSiteFrequency(s, assumptions, { runSeed: o.seed, targetRse: o.targetRse, maxSamplesPerTank: o.maxSamples, negligibleRatePerYear: o.negligibleRate }))
+    return { ...header, targetRse: o.targetRse, negligibleRatePerYear: o.negligibleRate, sites: results, portfolio: rollUpFrequency(results) }
   }
   if (o.mode === 'year') {
     const results = sites.map((s) => simulateSiteYears(s, assumptions, { runSeed: o.seed, years: o.years }))

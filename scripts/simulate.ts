@@ -1,5 +1,5 @@
 // npm run simulate -- --portfolio <name or id> [--organisation <name>] [--assumptions <name@version>]
-//                     [--mode frequency|year] [--seed N] [--years N] [--target-rse X] [--chunk-size N] [--wait]
+//                     [--mode frequency|year] [--seed N] [--years N] [--target-rse X] [--negligible-rate X] [--chunk-size N] [--wait]
 // Enqueues a run (workers must be running: npm start or npm run worker); with --wait, shows a
 // progress bar and prints the headline results.
 import { parseArgs } from 'node:util'
@@ -19,7 +19,7 @@ const { values } = parseArgs({
   options: {
     'portfolio': { type: 'string' }, 'organisation': { type: 'string' }, 'assumptions': { type: 'string' },
     'mode': { type: 'string', default: 'frequency' }, 'seed': { type: 'string' }, 'years': { type: 'string' },
-    'target-rse': { type: 'string' }, 'chunk-size': { type: 'string' }, 'wait': { type: 'boolean', default: false },
+    'target-rse': { type: 'string' }, 'negligible-rate': { type: 'string' }, 'chunk-size': { type: 'string' }, 'wait': { type: 'boolean', default: false },
   },
   strict: true,
 })
@@ -63,6 +63,7 @@ async function main() {
     seed: values.seed === undefined ? undefined : Number(values.seed),
     years: values.years === undefined ? undefined : Number(values.years),
     targetRse: values['target-rse'] === undefined ? undefined : Number(values['target-rse']),
+    negligibleRatePerYear: values['negligible-rate'] === undefined ? undefined : Number(values['negligible-rate']),
     chunkSize: values['chunk-size'] === undefined ? undefined : Number(values['chunk-size']),
   })
   if (!input.success) throw new UsageError(input.error.issues.map(i => `${String(i.path[0])}: ${i.message}`).join('\n'))

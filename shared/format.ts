@@ -51,10 +51,62 @@ export function formatOnceIn(perYear: number | null | undefined): string {
   return `once in ${rounded.toLocaleString('en-GB')} year${rounded === 1 ? '' : 's'}`
 }
 
-/** A value with its interval: "0.012 /yr (0.010–0.014)". */
+/** Most significant figures an interval is ever printed with; past it the printer writes value ± half-width. */
+const MAX_INTERVAL_DIGITS = 10
+
+/**
+ * Significant figures (at least `digits`) with which `write` prints `low` and `high` differently
+ * whenever they differ; null when even MAX_INTERVAL_DIGITS cannot tell them apart.
+ */
+export function intervalDigits(low: number, high: number, digits = 2, write: (v: number, d: number) => string = formatNumber): number | null {
+  if (low === high) return digits
+  for (let d = digits; d <= MAX_INTERVAL_DIGITS; d++) if (write(low, d) !== write(high, d)) return d
+  return null
+}
+
+/**
+ * "lo–hi" with enough significant figures that the two ends differ whenever they differ (never
+ * "14–14"); when not even ten figures separate them, "value ± half-width".
+ */
+export function formatRange(low: number, high: number, digits = 2, write: (v: number, d: number) => string = formatNumber, value = (low + high) / 2): string {
+  const d = intervalDigits(low, high, digits, write)
+  if (d === null) return `${write(value, digits)} ± ${formatNumber((high - low) / 2, 2)}`
+  return `${write(low, d)}–${write(high, d)}`
+}
+
+/** A value with its interval: "0.012 /yr (0.010–0.014)"; ends that share leading digits get more digits: "14 /yr (13.6–14.4)". */
 export function formatInterval(value: number, low: number, high: number, unit = '', digits = 2): string {
   const u = unit ? ` ${unit}` : ''
-  return `${formatNumber(value, digits)}${u} (${formatNumber(low, digits)}–${formatNumber(high, digits)})`
+  const d = intervalDigits(low, high, digits) ?? digits
+  return `${formatNumber(value, d)}${u} (${formatRange(low, high, digits, formatNumber, value)})`
+}
+
+/** A figure known only by an upper bound (stopped by the negligible-rate rule): "≤ 3.1 × 10⁻⁶ /yr". */
+export function formatUpperBound(high: number, unit = '', digits = 2): string {
+  return `≤ ${formatNumber(high, digits)}${unit ? ` ${unit}` : ''}`
+}
+
+/** A figure with an interval, or with its upper bound alone when `upperBoundOnly`. */
+export function formatEstimate(e: { rate: number, lo: number, hi: number, upperBoundOnly?: boolean }, unit = '', digits = 2): string {
+  return e.upperBoundOnly ? `${formatUpperBound(e.hi, unit, digits)} (negligible)` : formatInterval(e.rate, e.lo, e.hi, unit, digits)
+}
+
+/**
+ * An amount of money without the currency, whole units with thousands separators; `digits` > 0
+ * adds that many decimals (for intervals whose ends share every whole unit).
+ */
+export function formatAmount(amount: number, decimals = 0): string {
+  if (Math.abs(amount) < 1 && amount !== 0 && decimals === 0) return formatNumber(amount, 2)
+  return amount.toLocaleString('en-GB', { minimumFractionDigits: decimals, maximumFractionDigits: decimals })
+}
+
+/** A money interval: "USD 12,000–15,500"; more decimals when the whole units collapse, then value ± half-width. */
+export function formatMoneyRange(low: number, high: number, currency = 'USD'): string {
+  if (low === high) return `${currency} ${formatAmount(low)}`
+  for (let decimals = 0; decimals <= 4; decimals++) {
+    if (formatAmount(low, decimals) !== formatAmount(high, decimals)) return `${currency} ${formatAmount(low, decimals)}–${formatAmount(high, decimals)}`
+  }
+  return `${currency} ${formatAmount((low + high) / 2, 2)} ± ${formatNumber((high - low) / 2, 2)}`
 }
 
 export const formatCurrent = (kA: number | null | undefined) => (kA === null || kA === undefined ? '—' : `${formatNumber(kA, 3)} kA`)

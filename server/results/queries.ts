@@ -102,6 +102,7 @@ export async function siteResults(runId: string) {
     ignitionRate: runSiteResults.ignitionRate, ignitionLo: runSiteResults.ignitionLo, ignitionHi: runSiteResults.ignitionHi,
     expectedAnnualLoss: runSiteResults.expectedAnnualLoss, expectedAnnualLossLo: runSiteResults.expectedAnnualLossLo, expectedAnnualLossHi: runSiteResults.expectedAnnualLossHi,
     expectedAnnualLossPd: runSiteResults.expectedAnnualLossPd, expectedAnnualLossBi: runSiteResults.expectedAnnualLossBi,
+    ignitionSe: runSiteResults.ignitionSe, expectedAnnualLossSe: runSiteResults.expectedAnnualLossSe,
     radiusM: runSiteResults.radiusM, lambdaPerYear: runSiteResults.lambdaPerYear,
     lossAt100: sql<number | null>`(${runSiteResults.yearSummary} -> 'aggregate' -> 3 ->> 'loss')::float8`,
     tanks: sql<number>`jsonb_array_length(${runSiteSnapshots.site} -> 'tanks')`,

@@ -6,6 +6,7 @@ import { assumptionParameterMeta } from '../../shared/engine/assumptions'
 import { CAUTION_FULL } from '../../shared/caution'
 import { neutraliseFormula } from '../../shared/csv'
 import { getPath } from '../../shared/paths'
+import { formatMoneyRange, formatRange, formatUpperBound } from '../../shared/format'
 import type { runPortfolioResults, runs, runTankResults } from '../db/schema'
 import type { siteResults, StoredYearSummary } from './queries'
 
@@ -41,17 +42,18 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
   summary.getColumn(2).width = 22
   summary.getColumn(3).width = 22
   summary.getColumn(4).width = 22
+  summary.getColumn(5).width = 34
   const ys = p.yearSummary as StoredYearSummary | null
   const rows: (string | number | null)[][] = [
     ['Stormledger results workbook'],
     ['Caution', CAUTION_FULL],
     ['Methodology', `${input.publicUrl}/methodology`],
     [],
-    ['Figure', 'Estimate', '95 % low', '95 % high'],
-    ['Expected fires (/yr)', p.ignitionRate, p.ignitionLo, p.ignitionHi],
-    ['Induced sparking (/yr)', p.sparkingRate, p.sparkingLo, p.sparkingHi],
-    ['Direct strikes on tanks (/yr)', p.directRate, p.directLo, p.directHi],
-    [`Average annual loss (${currency}/yr)`, p.expectedAnnualLoss, p.expectedAnnualLossLo, p.expectedAnnualLossHi],
+    ['Figure', 'Estimate', '95 % low', '95 % high', '95 % interval (as printed)'],
+    ['Expected fires (/yr)', p.ignitionRate, p.ignitionLo, p.ignitionHi, `${formatRange(p.ignitionLo, p.ignitionHi, 2, undefined, p.ignitionRate)} /yr`],
+    ['Induced sparking (/yr)', p.sparkingRate, p.sparkingLo, p.sparkingHi, `${formatRange(p.sparkingLo, p.sparkingHi, 2, undefined, p.sparkingRate)} /yr`],
+    ['Direct strikes on tanks (/yr)', p.directRate, p.directLo, p.directHi, `${formatRange(p.directLo, p.directHi, 2, undefined, p.directRate)} /yr`],
+    [`Average annual loss (${currency}/yr)`, p.expectedAnnualLoss, p.expectedAnnualLossLo, p.expectedAnnualLossHi, formatMoneyRange(p.expectedAnnualLossLo, p.expectedAnnualLossHi, currency)],
   ]
   for (const T of [100, 250]) {
     const row = ys?.aggregate.find(r => r.returnPeriodYears === T)
@@ -64,7 +66,7 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
   rows.push([`Average annual loss, property damage (${currency}/yr)`, hasSplit ? p.expectedAnnualLossPd : 'total only (run made before the split)', null, null])
   rows.push([`Average annual loss, business interruption (${currency}/yr)`, hasSplit ? p.expectedAnnualLossBi : 'total only (run made before the split)', null, null])
   rows.push([], ['Provenance'],
-    ['Run id', run.id], ['Portfolio', text(run.portfolioName)], ['Mode', run.mode === 'year' ? `simulated years (${run.years} per site)` : `frequency (target relative standard error ${run.targetRse})`],
+    ['Run id', run.id], ['Portfolio', text(run.portfolioName)], ['Mode', run.mode === 'year' ? `simulated years (${run.years} per site)` : `frequency (target relative standard error ${run.targetRse}; negligible-rate rule ${run.negligibleRatePerYear > 0 ? `${run.negligibleRatePerYear} /yr` : 'off'})`],
     ['Seed', run.seed], ['Engine version', run.engineVersion], ['Assumption set', `${text(input.assumptions.setName)} — version ${input.assumptions.version}`],
     ['Input hash (sha-256)', run.inputHash], ['Started by', text(input.requestedBy ?? '—')], ['Created', run.createdAt.toISOString()],
     ['Finished', run.finishedAt?.toISOString() ?? ''], ['Exported by', text(input.exportedBy)], ['Exported', new Date().toISOString()])
@@ -99,11 +101,21 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
     { header: `expected_annual_loss_${currency}_per_yr`, key: 'eal', width: 26, numFmt: '#,##0' },
     { header: `property_damage_${currency}_per_yr`, key: 'pd', width: 24, numFmt: '#,##0' }, { header: `business_interruption_${currency}_per_yr`, key: 'bi', width: 28, numFmt: '#,##0' },
     { header: 'driving_component_class', key: 'cls', width: 24 }, { header: 'samples', key: 'samples', width: 12 },
-  ], input.tanks.map(t => ({
-    pd: t.expectedAnnualLossPd, bi: t.expectedAnnualLossBi,
-    site: text(siteName.get(t.siteId)), tag: text(t.tag), ign: t.ignitionRate, ignLo: t.ignitionLo, ignHi: t.ignitionHi,
-    spk: t.sparkingRate, spkLo: t.sparkingLo, spkHi: t.sparkingHi, dir: t.directRate, eal: t.expectedAnnualLoss, cls: t.drivingComponentClass ?? '', samples: t.samples,
-  })))
+    { header: 'upper_bound_only', key: 'bound', width: 30 },
+    { header: 'expected_fires_95_interval_per_yr', key: 'ignText', width: 30 },
+    { header: 'direct_strikes_count', key: 'dirN', width: 20 }, { header: 'sparking_count', key: 'spkN', width: 16 }, { header: 'expected_fires_count', key: 'ignN', width: 20 },
+  ], input.tanks.map((t) => {
+    // A figure stopped by the negligible-rate rule has no lower end: its "hi" is an upper bound.
+    const bound = (name: string) => t.upperBoundFigures.includes(name)
+    return {
+      pd: t.expectedAnnualLossPd, bi: t.expectedAnnualLossBi,
+      site: text(siteName.get(t.siteId)), tag: text(t.tag), ign: t.ignitionRate, ignLo: bound('ignition') ? null : t.ignitionLo, ignHi: t.ignitionHi,
+      spk: t.sparkingRate, spkLo: bound('sparking') ? null : t.sparkingLo, spkHi: t.sparkingHi, dir: t.directRate, eal: t.expectedAnnualLoss, cls: t.drivingComponentClass ?? '', samples: t.samples,
+      bound: t.upperBoundFigures.length > 0 ? `${t.upperBoundFigures.join(', ')} (negligible: hi is an upper bound)` : '',
+      ignText: bound('ignition') ? formatUpperBound(t.ignitionHi) : formatRange(t.ignitionLo, t.ignitionHi, 2, undefined, t.ignitionRate),
+      dirN: t.directCount, spkN: t.sparkingCount, ignN: t.ignitionCount,
+    }
+  }))
 
   const exceedance = wb.addWorksheet('Exceedance')
   if (ys) {

@@ -4,7 +4,7 @@ import type { AssumptionSet } from '../../shared/engine/assumptions'
 import { parseSite } from '../../shared/engine/site-schema'
 import { simulateSiteFrequency } from '../../shared/engine/frequency'
 import { simulateSiteYears } from '../../shared/engine/years'
-import { normalEstimate } from '../../shared/engine/statistics'
+import { countEstimate, normalEstimate } from '../../shared/engine/statistics'
 import type { CountEstimate, Estimate, SiteInput } from '../../shared/engine/types'
 import type { YearLossSummary } from '../../shared/engine/exceedance'
 import type { PackedEvents, PackedSplit } from './events-codec'
@@ -19,11 +19,16 @@ export interface SiteTask {
   runSeed: number
   targetRse: number
   maxSamplesPerTank: number
+  /** Frequency mode: the negligible-rate rule (/yr). */
+  negligibleRatePerYear: number
   years: number
 }
 
-/** A rate per year with its standard error and 95 % interval (the engine's Estimate). */
-export type Figure = Estimate
+/**
+ * A rate per year with its standard error and 95 % interval (the engine's Estimate). Year mode:
+ * `count` is the simulated count behind the rate (a whole number) and the interval is Garwood's.
+ */
+export type Figure = Estimate & { count?: number }
 
 export interface TankComputation {
   tankId: string
@@ -61,8 +66,8 @@ export interface SiteComputation {
 
 
 /** A simulated count as a rate with the Garwood interval and the Poisson standard error √n / Y. */
-function fromCount(c: CountEstimate, years: number): Figure {
-  return { rate: c.rate, se: Math.sqrt(c.count) / years, lo: c.lo, hi: c.hi }
+export function fromCount(c: CountEstimate, years: number): Figure {
+  return { count: c.count, rate: c.rate, se: Math.sqrt(c.count) / years, lo: c.lo, hi: c.hi }
 }
 
 const fromMean = (m: { mean: number, se: number }): Figure => normalEstimate(m.mean, m.se)
@@ -82,6 +87,7 @@ type SiteFigures = Omit<SiteComputation, 'eventBands'>
 function computeFrequency(task: SiteTask): SiteFigures {
   const r = simulateSiteFrequency(task.site, task.assumptions, {
     runSeed: task.runSeed, targetRse: task.targetRse, maxSamplesPerTank: task.maxSamplesPerTank,
+    negligibleRatePerYear: task.negligibleRatePerYear,
   })
   return {
     siteId: r.siteId,
@@ -110,7 +116,8 @@ function computeYears(task: SiteTask): SiteFigures {
   const r = simulateSiteYears(task.site, task.assumptions, { runSeed: task.runSeed, years: task.years })
   const Y = r.years
   const sumCounts = (pick: (t: typeof r.tanks[number]) => CountEstimate) => r.tanks.reduce((n, t) => n + pick(t).count, 0)
-  const siteCount = (n: number): Figure => normalEstimate(n / Y, Math.sqrt(n) / Y)
+  // Counts over the same simulated years add; the site's interval is Garwood's on the sum, as for tanks.
+  const siteCount = (n: number): Figure => fromCount(countEstimate(n, Y), Y)
   return {
     siteId: r.siteId,
     radiusM: r.radiusM,

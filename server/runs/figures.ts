@@ -3,10 +3,14 @@
 import { countEstimate } from '../../shared/engine/statistics'
 import type { Figure } from './compute'
 
-/** Year mode: counts over the same simulated years add; exact Poisson (Garwood) interval on the sum. */
+/**
+ * Year mode: counts over the same simulated years add; exact Poisson (Garwood) interval on the sum.
+ * Parts carry their stored whole count (rows written before counts were stored were backfilled
+ * from rate × years by the migration).
+ */
 export function sumCounts(parts: readonly Figure[], years: number): Figure {
   let count = 0
-  for (const p of parts) count += Math.round(p.rate * years)
+  for (const p of parts) count += p.count ?? Math.round(p.rate * years)
   const c = countEstimate(count, years)
-  return { rate: c.rate, se: Math.sqrt(count) / years, lo: c.lo, hi: c.hi }
+  return { count, rate: c.rate, se: Math.sqrt(count) / years, lo: c.lo, hi: c.hi }
 }

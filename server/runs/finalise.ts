@@ -12,7 +12,7 @@ import { normalEstimate, sumEstimates } from '../../shared/engine/statistics'
 type SiteRow = typeof runSiteResults.$inferSelect
 
 const figure = (r: SiteRow, p: 'direct' | 'sparking' | 'ignition'): Figure =>
-  ({ rate: r[`${p}Rate`], se: r[`${p}Se`], lo: r[`${p}Lo`], hi: r[`${p}Hi`] })
+  ({ rate: r[`${p}Rate`], se: r[`${p}Se`], lo: r[`${p}Lo`], hi: r[`${p}Hi`], count: r[`${p}Count`] ?? undefined })
 const lossFigure = (r: SiteRow): Figure =>
   ({ rate: r.expectedAnnualLoss, se: r.expectedAnnualLossSe, lo: r.expectedAnnualLossLo, hi: r.expectedAnnualLossHi })
 
@@ -60,7 +60,7 @@ export async function finaliseRun(runId: string): Promise<boolean> {
     if (!run || run.state !== 'running' || run.chunksDone !== run.chunksTotal) return false
     // Fixed order (by site id) so that sums are bit-identical however the chunks were worked.
     const rows = await tx.select().from(runSiteResults).where(eq(runSiteResults.runId, runId)).orderBy(asc(runSiteResults.siteId))
-    let values
+    let values: { pd: number, bi: number, direct: Figure, sparking: Figure, ignition: Figure, eal: Figure, yearSummary: object | null }
     const splitSum = (key: 'expectedAnnualLossPd' | 'expectedAnnualLossBi') => rows.reduce((s, r) => s + (r[key] ?? 0), 0)
     const pd = splitSum('expectedAnnualLossPd')
     const bi = splitSum('expectedAnnualLossBi')
@@ -95,6 +95,7 @@ export async function finaliseRun(runId: string): Promise<boolean> {
     }
     await tx.insert(runPortfolioResults).values({
       runId,
+      directCount: values.direct.count ?? null, sparkingCount: values.sparking.count ?? null, ignitionCount: values.ignition.count ?? null,
       directRate: values.direct.rate, directLo: values.direct.lo, directHi: values.direct.hi, directSe: values.direct.se,
       sparkingRate: values.sparking.rate, sparkingLo: values.sparking.lo, sparkingHi: values.sparking.hi, sparkingSe: values.sparking.se,
       ignitionRate: values.ignition.rate, ignitionLo: values.ignition.lo, ignitionHi: values.ignition.hi, ignitionSe: values.ignition.se,

@@ -110,6 +110,8 @@ export interface HashInputs {
   seed: number
   targetRse: number
   maxSamplesPerTank: number
+  /** Absent for runs hashed before the rule was an option (they used the default, 1e-5 /yr). */
+  negligibleRatePerYear?: number
   years: number
   sites: SiteInput[]
 }

@@ -35,7 +35,7 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
   const seed = input.seed ?? randomInt(0, 2 ** 31)
   const hash = inputHash({
     engineVersion: ENGINE_VERSION, assumptions, mode: input.mode, seed, targetRse: input.targetRse,
-    maxSamplesPerTank: input.maxSamplesPerTank, years: input.years, sites: snapshot.map(s => s.site),
+    maxSamplesPerTank: input.maxSamplesPerTank, negligibleRatePerYear: input.negligibleRatePerYear, years: input.years, sites: snapshot.map(s => s.site),
   })
   const chunks: string[][] = []
   for (let i = 0; i < snapshot.length; i += input.chunkSize) chunks.push(snapshot.slice(i, i + input.chunkSize).map(s => s.site.id))
@@ -45,7 +45,8 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
     const [run] = await tx.insert(runs).values({
       organisationId: by.organisationId, portfolioId: portfolio.id, portfolioName: portfolio.name,
       assumptionVersionId: version.v.id, mode: input.mode, seed,
-      targetRse: input.targetRse, maxSamplesPerTank: input.maxSamplesPerTank, years: input.years, chunkSize: input.chunkSize,
+      targetRse: input.targetRse, maxSamplesPerTank: input.maxSamplesPerTank, negligibleRatePerYear: input.negligibleRatePerYear,
+      years: input.years, chunkSize: input.chunkSize,
       sitesTotal: snapshot.length, tanksTotal: snapshot.reduce((n, s) => n + s.site.tanks.length, 0), chunksTotal: chunks.length,
       inputHash: hash, engineVersion: ENGINE_VERSION, requestedBy: by.userId, retryOf: options.retryOf ?? null,
     }).returning()

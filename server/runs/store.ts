@@ -6,8 +6,12 @@ import type { Figure, SiteComputation } from './compute'
 import { encodeEvents } from './events-codec'
 
 const cols = (prefix: 'direct' | 'sparking' | 'ignition', f: Figure) => ({
-  [`${prefix}Rate`]: f.rate, [`${prefix}Lo`]: f.lo, [`${prefix}Hi`]: f.hi,
-}) as Record<string, number>
+  [`${prefix}Rate`]: f.rate, [`${prefix}Lo`]: f.lo, [`${prefix}Hi`]: f.hi, [`${prefix}Count`]: f.count ?? null,
+}) as Record<string, number | null>
+
+/** Names of the tank's figures that are upper bounds only (the negligible-rate rule stopped them). */
+const upperBounds = (t: { sparking: Figure, ignition: Figure, expectedAnnualLoss: Figure }) =>
+  (['sparking', 'ignition', 'expectedAnnualLoss'] as const).filter(k => t[k].upperBoundOnly === true)
 
 const money = (f: Figure) => ({ expectedAnnualLoss: f.rate, expectedAnnualLossLo: f.lo, expectedAnnualLossHi: f.hi })
 const split = (x: { expectedAnnualLossPd: number, expectedAnnualLossBi: number }) => ({ expectedAnnualLossPd: x.expectedAnnualLossPd, expectedAnnualLossBi: x.expectedAnnualLossBi })
@@ -40,6 +44,7 @@ export async function storeChunk(tx: Database, runId: string, chunkIndex: number
       await tx.insert(runTankResults).values(s.tanks.map(t => ({
         runId, siteId: s.siteId, tankId: t.tankId, tag: t.tag,
         ...cols('direct', t.direct), ...cols('sparking', t.sparking), ...cols('ignition', t.ignition), ...money(t.expectedAnnualLoss), ...split(t),
+        upperBoundFigures: upperBounds(t),
         samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
       }) as typeof runTankResults.$inferInsert))
     }

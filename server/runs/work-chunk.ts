@@ -41,7 +41,7 @@ export async function workChunk(runId: string, chunkIndex: number): Promise<Chun
     try {
       return await computeOnThread({
         site, assumptions, mode: run.mode, runSeed: run.seed,
-        targetRse: run.targetRse, maxSamplesPerTank: run.maxSamplesPerTank, years: run.years,
+        targetRse: run.targetRse, maxSamplesPerTank: run.maxSamplesPerTank, negligibleRatePerYear: run.negligibleRatePerYear, years: run.years,
       })
     } catch (error) {
       throw new SiteComputationError(`site "${site.name}" (${site.id}): ${(error as Error).message}`)

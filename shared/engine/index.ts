@@ -2,7 +2,7 @@
 // database, so the same code runs in the server, in worker threads and in the browser.
 
 /** Bumped whenever a change can alter any number the engine produces for the same input and seed. */
-export const ENGINE_VERSION = '2.0.0'
+export const ENGINE_VERSION = '2.1.0'
 
 export type {
   ComponentClass, TankMaterial, Contents, StructureKind, ComponentInput, TankInput, StructureInput, SiteInput,
@@ -38,7 +38,9 @@ export { garwoodInterval, countEstimate, normalEstimate, sumEstimates } from './
 export { createStream, streamSeed } from './random'
 
 export type { FrequencyOptions, SiteFrequencyResult, TankFrequencyResult } from './frequency'
-export { simulateSiteFrequency } from './frequency'
+export { simulateSiteFrequency, DEFAULT_NEGLIGIBLE_RATE_PER_YEAR } from './frequency'
+export type { DirectQuadratureOptions, DirectQuadratureResult } from './direct-quadrature'
+export { directStrikeQuadrature } from './direct-quadrature'
 export type { YearOptions, SiteYearResult, TankYearResult, YearEventTable, YearLossSplit } from './years'
 export { simulateSiteYears } from './years'
 export type { YearLossSummary, YearLossTable, ReturnPeriodLoss, ExceedancePoint } from './exceedance'

@@ -49,7 +49,7 @@ export function sumEstimates(parts: readonly Estimate[]): Estimate {
 
 /** An estimate times a constant (e.g. ignition frequency × severity = expected annual loss). */
 export function scaleEstimate(e: Estimate, factor: number): Estimate {
-  return { rate: e.rate * factor, se: e.se * factor, lo: e.lo * factor, hi: e.hi * factor }
+  return { ...e, rate: e.rate * factor, se: e.se * factor, lo: e.lo * factor, hi: e.hi * factor }
 }
 
 /** Mean and standard error of the mean of a sample. */

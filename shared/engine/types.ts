@@ -38,8 +38,12 @@ export interface SiteInput {
 
 export type AttachmentModel = 'egm' | 'collection_area'
 
-/** A rate per year with its standard error and 95 % interval (normal approximation, floored at 0). */
-export interface Estimate { rate: number; se: number; lo: number; hi: number }
+/**
+ * A rate per year with its standard error and 95 % interval (normal approximation, floored at 0).
+ * `upperBoundOnly`: the figure was stopped by the negligible-rate rule; only `hi` is meant (an upper
+ * bound, `lo` is 0), not a two-sided interval.
+ */
+export interface Estimate { rate: number; se: number; lo: number; hi: number; upperBoundOnly?: boolean }
 
 /** A simulated count over a number of years with the exact Poisson (Garwood) 95 % interval, as rates per year. */
 export interface CountEstimate { count: number; rate: number; lo: number; hi: number }

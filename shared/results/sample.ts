@@ -103,7 +103,8 @@ export function sampleResults(seed = 'stormledger-gallery'): SampleResults {
   const headline: HeadlineFigures = {
     ignitionPerYear: { value: fires, lo: fires * 0.9, hi: fires * 1.1 },
     sparkingPerYear: { value: sparks, lo: sparks * 0.93, hi: sparks * 1.07 },
-    directPerYear: { value: directs, lo: directs * 0.95, hi: directs * 1.05 },
+    // A narrow interval whose ends share their first two figures: the printer must not show it as "x–x".
+    directPerYear: { value: directs, lo: directs * 0.996, hi: directs * 1.004 },
     averageAnnualLoss: { value: aal, lo: aal * 0.88, hi: aal * 1.12 },
     lossAt100Years: { value: at(100), lo: at(100) * 0.85, hi: at(100) * 1.15 },
     lossAt250Years: { value: at(250), lo: at(250) * 0.8, hi: at(250) * 1.2 },

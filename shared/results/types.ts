@@ -2,8 +2,11 @@
 // know nothing about where the figures come from. Units: frequencies per year, money in the
 // organisation's currency, current in kA, distance in m.
 
-/** A figure with its 95 % interval; lo/hi are null when the figure has no interval. */
-export interface RangedFigure { value: number; lo: number | null; hi: number | null }
+/**
+ * A figure with its 95 % interval; lo/hi are null when the figure has no interval. `upperBoundOnly`:
+ * stopped by the negligible-rate rule, only `hi` (an upper bound) is meant.
+ */
+export interface RangedFigure { value: number; lo: number | null; hi: number | null; upperBoundOnly?: boolean }
 
 /** One point of an exceedance curve: the loss exceeded once in `returnPeriodYears` on average. */
 export interface ExceedancePoint { returnPeriodYears: number; loss: number }

@@ -10,6 +10,11 @@ export const startRunSchema = z.object({
   seed: z.number().int('The seed is a whole number.').min(0, 'The seed is 0 or more.').max(2 ** 48, 'The seed is at most 2⁴⁸.').optional(),
   /** Frequency mode: relative standard error at which a tank stops (0.02 = 2 %). */
   targetRse: z.number().min(0.005, 'The target relative standard error is at least 0.5 %.').max(0.5, 'The target relative standard error is at most 50 %.').default(0.02),
+  /**
+   * Frequency mode: the negligible-rate rule (/yr). A sampled figure whose upper bound falls below it
+   * stops refining and is reported as that upper bound; 0 switches the rule off.
+   */
+  negligibleRatePerYear: z.number().min(0, 'The negligible rate is 0 (off) or more.').max(1e-3, 'The negligible rate is at most 10⁻³ /yr.').default(1e-5),
   maxSamplesPerTank: z.number().int().min(1000, 'At least 1,000 samples per tank.').max(10_000_000, 'At most 10,000,000 samples per tank.').default(400_000),
   /** Year mode: simulated years per site. */
   years: z.number().int('Years are a whole number.').min(100, 'Simulate at least 100 years.').max(1_000_000, 'Simulate at most 1,000,000 years.').default(10_000),

@@ -51,6 +51,13 @@ describe('chart gallery with sample figures', () => {
     expect(await g.page.locator('[data-tile="aal"] [data-role="value"]').textContent()).toMatch(/^USD [\d,]+$/)
   })
 
+  it('never shows a collapsed interval (issue 15: no "14–14")', async () => {
+    const texts = await g.page.locator('[data-testid="headline-tiles"] [data-tile]').allTextContents()
+    const ranges = texts.flatMap(t => [...t.matchAll(/95 % interval (?:[A-Z]{3} )?([^–\s]+(?: × 10\S+)?)–([^\s/]+(?: × 10\S+)?)/g)])
+    expect(ranges.length).toBeGreaterThanOrEqual(5) // the sample's tiles with intervals (shared/results/sample.ts)
+    for (const m of ranges) expect(m[1]).not.toBe(m[2]) // distinct ends (the printer's rule, shared/format.ts)
+  })
+
   it('ranks the drivers with shares that fall down the list', async () => {
     const shares = await g.page.locator('[data-testid="drivers-list"] li span[aria-label^="share"]').allTextContents()
     expect(shares.length).toBe(10)

@@ -1,6 +1,7 @@
 import { bigint, boolean, customType, doublePrecision, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
+import { sql } from 'drizzle-orm'
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
 
@@ -48,6 +49,8 @@ export const runs = pgTable('runs', {
   /** Frequency mode: stop a tank at this relative standard error. */
   targetRse: doublePrecision('target_rse').notNull(),
   maxSamplesPerTank: integer('max_samples_per_tank').notNull(),
+  /** Frequency mode: the negligible-rate rule (/yr); a sampled figure whose upper bound is below it stops, reported as that bound. 0: off. */
+  negligibleRatePerYear: doublePrecision('negligible_rate_per_year').notNull().default(1e-5),
   /** Year mode: simulated years per site. */
   years: integer('years').notNull(),
   chunkSize: integer('chunk_size').notNull(),
@@ -119,6 +122,16 @@ const lossSplitColumns = () => ({
   expectedAnnualLossBi: money('expected_annual_loss_bi'),
 })
 
+/**
+ * Year mode: the simulated counts behind the rates (whole numbers; the Garwood interval is on them).
+ * Null in frequency mode.
+ */
+const countColumns = () => ({
+  directCount: bigint('direct_count', { mode: 'number' }),
+  sparkingCount: bigint('sparking_count', { mode: 'number' }),
+  ignitionCount: bigint('ignition_count', { mode: 'number' }),
+})
+
 /** Standard errors (frequency mode; year mode: from the counts), so roll-ups can combine them. */
 const standardErrorColumns = () => ({
   directSe: doublePrecision('direct_se').notNull(),
@@ -134,6 +147,9 @@ export const runTankResults = pgTable('run_tank_results', {
   tag: text('tag').notNull(),
   ...figureColumns(),
   ...lossSplitColumns(),
+  ...countColumns(),
+  /** Figures stopped by the negligible-rate rule ('sparking', 'ignition', 'expectedAnnualLoss'): their hi is an upper bound, lo is 0. */
+  upperBoundFigures: text('upper_bound_figures').array().notNull().default(sql`'{}'::text[]`),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   drivingComponentClass: text('driving_component_class'),
   converged: boolean('converged').notNull(),
@@ -151,6 +167,7 @@ export const runSiteResults = pgTable('run_site_results', {
   lambdaPerYear: doublePrecision('lambda_per_year').notNull(),
   ...figureColumns(),
   ...lossSplitColumns(),
+  ...countColumns(),
   ...standardErrorColumns(),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   /** Year mode: the site's summary (AAL, return-period losses, TVaR) and its loss events (packed). */
@@ -167,6 +184,7 @@ export const runPortfolioResults = pgTable('run_portfolio_results', {
   runId: uuid('run_id').primaryKey().references(() => runs.id, { onDelete: 'cascade' }),
   ...figureColumns(),
   ...lossSplitColumns(),
+  ...countColumns(),
   ...standardErrorColumns(),
   /** Year mode: AAL, aggregate/occurrence losses at 10…1000 years, TVaR and the curves. */
   yearSummary: jsonb('year_summary'),

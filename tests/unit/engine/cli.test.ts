@@ -38,6 +38,17 @@ describe('calc', () => {
     expect(y.code).toBe(0)
     expect(JSON.parse(y.out).sites[0].yearLosses).toHaveLength(500)
   })
+  it('marks figures stopped by the negligible-rate rule in its JSON, and takes the rule as an option', () => {
+    // A lone tank at a flash density so low that sparking is far below the default 1e-5 /yr (invented input).
+    const input = file('faint.json', { site: makeSite([makeTank()], [], { flashDensity: 2e-5 }) })
+    const on = JSON.parse(calc(input, '--target-rse', '0.01').out)
+    expect(on.negligibleRatePerYear).toBe(1e-5) // the documented default
+    expect(on.sites[0].tanks[0].sparking.upperBoundOnly).toBe(true)
+    expect(on.sites[0].tanks[0].sparking.lo).toBe(0) // an upper bound has no lower end
+    const off = JSON.parse(calc(input, '--target-rse', '0.01', '--negligible-rate', '0').out)
+    expect(off.sites[0].tanks[0].sparking.upperBoundOnly).toBeUndefined()
+    expect(calc(input, '--negligible-rate', '-1').code).not.toBe(0)
+  })
   it('bad site data: message on stderr, non-zero exit', () => {
     const r = calc(file('bad.json', { site: makeSite([makeTank({ heightM: -3 })]) }))
     expect(r.code).not.toBe(0)

@@ -26,10 +26,11 @@ export default defineEventHandler(async (event) => {
     tanks: detail.tanks.map(t => ({
       tankId: t.tankId, tag: t.tag,
       lossSplit: lossSplit(t),
-      direct: { rate: t.directRate, lo: t.directLo, hi: t.directHi },
-      sparking: { rate: t.sparkingRate, lo: t.sparkingLo, hi: t.sparkingHi },
-      ignition: { rate: t.ignitionRate, lo: t.ignitionLo, hi: t.ignitionHi },
-      expectedAnnualLoss: { rate: t.expectedAnnualLoss, lo: t.expectedAnnualLossLo, hi: t.expectedAnnualLossHi },
+      // Year mode: the whole simulated counts behind the rates (Garwood intervals); null in frequency mode.
+      direct: { rate: t.directRate, lo: t.directLo, hi: t.directHi, count: t.directCount },
+      sparking: { rate: t.sparkingRate, lo: t.sparkingLo, hi: t.sparkingHi, count: t.sparkingCount, upperBoundOnly: t.upperBoundFigures.includes('sparking') },
+      ignition: { rate: t.ignitionRate, lo: t.ignitionLo, hi: t.ignitionHi, count: t.ignitionCount, upperBoundOnly: t.upperBoundFigures.includes('ignition') },
+      expectedAnnualLoss: { rate: t.expectedAnnualLoss, lo: t.expectedAnnualLossLo, hi: t.expectedAnnualLossHi, upperBoundOnly: t.upperBoundFigures.includes('expectedAnnualLoss') },
       samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
     })),
   }
