@@ -4,11 +4,12 @@ import { sql } from 'drizzle-orm'
 import { check, doublePrecision, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
+import { MONEY_NUMERIC } from '../../../shared/schemas/money'
 import { componentClass, sites, tanks } from './inventory'
 import { assumptionSetVersions } from './runs'
 
 /** Money with cents, read as numbers. */
-const money = (name: string) => numeric(name, { precision: 16, scale: 2, mode: 'number' })
+const money = (name: string) => numeric(name, { ...MONEY_NUMERIC.capital, mode: 'number' })
 
 export const mitigationKind = pgEnum('mitigation_kind', ['shield', 'remove_class', 'steel_tank', 'vapour_control', 'mast', 'grounding', 'static_dissipator'])
 export const costBasis = pgEnum('cost_basis', ['each', 'diameter_m', 'height_m', 'component_count', 'volume_m3'])

@@ -6,9 +6,10 @@ import { sql } from 'drizzle-orm'
 import { boolean, check, index, integer, numeric, pgTable, primaryKey, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
+import { MONEY_NUMERIC } from '../../../shared/schemas/money'
 import { runs } from './runs'
 
-const money = (name: string) => numeric(name, { precision: 16, scale: 2, mode: 'number' })
+const money = (name: string) => numeric(name, { ...MONEY_NUMERIC.insurance, mode: 'number' })
 
 /** One terms set per organisation and portfolio (the portfolio may be one shared with the organisation). */
 export const policyTermsSets = pgTable('policy_terms_sets', {
