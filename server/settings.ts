@@ -34,5 +34,5 @@ export const settings = {
   get uploadThreads() { return Number(process.env.STORMLEDGER_UPLOAD_THREADS ?? 0) || 2 },
   /** Seconds between a working chunk's heartbeats, and after how many seconds without one it is reclaimed. */
   get heartbeatSeconds() { return Number(process.env.STORMLEDGER_HEARTBEAT_SECONDS ?? 0) || 2 },
-  get staleAfterSeconds() { return Number(process.env.STORMLEDGER_STALE_AFTER_SECONDS ?? 0) || 15 },
+  get staleAfterSeconds() { return Number(process.env.STORMLEDGER_STALE_AFTER_SECONDS ?? 0) || 20 },
 }
