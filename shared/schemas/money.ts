@@ -26,6 +26,8 @@ export function fitsNumeric(value: number, c: { precision: number, scale: number
   return Math.abs(roundToScale(value, c.scale)) <= numericMax(c)
 }
 
+/** The largest value, written exactly (digit by digit: the double nearest it may print differently). */
 export function formatNumericMax(c: { precision: number, scale: number }): string {
-  return numericMax(c).toLocaleString('en-GB', { minimumFractionDigits: c.scale, maximumFractionDigits: c.scale })
+  const whole = Number('9'.repeat(c.precision - c.scale)).toLocaleString('en-GB')
+  return c.scale > 0 ? `${whole}.${'9'.repeat(c.scale)}` : whole
 }
