@@ -1,6 +1,7 @@
 // The signed-in person, their organisation and role, as the frame shows them; and the account actions.
 import { passwordProblem } from '~~/shared/schemas/auth'
 import { roleLabels } from '~~/shared/roles'
+import { inWords } from '~~/shared/schemas/messages'
 
 export function useAccount() {
   const { session, user, loggedIn, fetch, clear } = useUserSession()
@@ -29,24 +30,18 @@ export function errorMessage(error: unknown, fallback = 'Something went wrong. T
   return e?.data?.statusMessage ?? e?.statusMessage ?? e?.data?.message ?? fallback
 }
 
-/** Field messages from a 400 answer (zod errors from readValidatedBody, or our own fieldErrors). */
+/** Field messages from a 400 answer (`data.fields`: field path → message, from server/utils/validation.ts). */
 export function fieldErrors(error: unknown): Record<string, string> {
-  type Issue = { path: (string | number)[], message: string }
-  const data = (error as { data?: { data?: unknown } })?.data?.data as { fieldErrors?: Record<string, string[]>, issues?: Issue[], name?: string, message?: string } | undefined
+  const data = (error as { data?: { data?: unknown } })?.data?.data as { fields?: Record<string, string> } | undefined
   const out: Record<string, string> = {}
-  if (data?.fieldErrors) for (const [k, v] of Object.entries(data.fieldErrors)) if (v?.[0]) out[k] = v[0]
-  // readValidatedBody answers a zod failure with the issues serialised in `message`.
-  let issues: Issue[] = Array.isArray(data?.issues) ? data.issues : []
-  if (data?.name === 'ZodError' && typeof data.message === 'string') {
-    try { issues = JSON.parse(data.message) as Issue[] } catch { issues = [] }
-  }
-  for (const i of issues) { const k = String(i.path?.[0] ?? ''); out[k] ??= i.message }
+  for (const [path, message] of Object.entries(data?.fields ?? {})) out[path.split('.')[0] ?? ''] ??= message
   return out
 }
 
-/** Validates form values with the zod schema the route uses; returns the first message per field. */
-export function validateForm<T>(schema: { safeParse: (v: unknown) => { success: true, data: T } | { success: false, error: { issues: { path: PropertyKey[], message: string }[] } } }, values: unknown): { data?: T, errors: Record<string, string> } {
-  const result = schema.safeParse(values)
+type ParseParams = { error: typeof inWords }
+/** Validates form values with the zod schema the route uses; returns the first message per field, in words. */
+export function validateForm<T>(schema: { safeParse: (v: unknown, params?: ParseParams) => { success: true, data: T } | { success: false, error: { issues: { path: PropertyKey[], message: string }[] } } }, values: unknown): { data?: T, errors: Record<string, string> } {
+  const result = schema.safeParse(values, { error: inWords })
   if (result.success) return { data: result.data, errors: {} }
   const errors: Record<string, string> = {}
   for (const issue of result.error.issues) {

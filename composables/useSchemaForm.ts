@@ -1,6 +1,7 @@
 // A form validated by the same zod schema the route uses: messages by field, and the server's
 // field messages (400 with data.fields) shown in the same places.
 import type { z } from 'zod'
+import { inWords } from '~~/shared/schemas/messages'
 
 export function useSchemaForm<T extends z.ZodType>(schema: T) {
   const errors = ref<Record<string, string>>({})
@@ -8,7 +9,7 @@ export function useSchemaForm<T extends z.ZodType>(schema: T) {
   const saving = ref(false)
 
   function validate(values: unknown): z.output<T> | null {
-    const parsed = schema.safeParse(values)
+    const parsed = schema.safeParse(values, { error: inWords })
     errors.value = {}
     formError.value = ''
     if (parsed.success) return parsed.data

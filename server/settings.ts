@@ -30,4 +30,9 @@ export const settings = {
   get trustProxy() { return flag('STORMLEDGER_TRUST_PROXY', false) },
   /** Worker threads per worker process; defaults to every core. */
   get workerThreads() { return Number(process.env.STORMLEDGER_WORKER_THREADS ?? 0) || undefined },
+  /** Threads of the web server that read uploaded inventory files (server/inventory/parse-pool.ts). */
+  get uploadThreads() { return Number(process.env.STORMLEDGER_UPLOAD_THREADS ?? 0) || 2 },
+  /** Seconds between a working chunk's heartbeats, and after how many seconds without one it is reclaimed. */
+  get heartbeatSeconds() { return Number(process.env.STORMLEDGER_HEARTBEAT_SECONDS ?? 0) || 2 },
+  get staleAfterSeconds() { return Number(process.env.STORMLEDGER_STALE_AFTER_SECONDS ?? 0) || 20 },
 }

@@ -7,7 +7,7 @@ import {
   boundingBox, FLASH_GROUPING, haversineKm, insideBox, isRecord, LIGHTNING_LIMITS, parseLightningRow, readLightningHeader,
   splitCsvLine, type NearbyStroke,
 } from '../../shared/calibration'
-import { readLines } from './lines'
+import { LineTooLongError, readLines } from './lines'
 
 export interface LightningSummary {
   rows: number
@@ -62,36 +62,42 @@ export async function ingestLightningFile(body: AsyncIterable<Buffer>): Promise<
   let first = Infinity, last = -Infinity, minLat = Infinity, maxLat = -Infinity, minLon = Infinity, maxLon = -Infinity
   const fail = (message: string): IngestResult => { gzip.destroy(); return { ok: false, message, rowErrors, errorCount, rows: s.rows } }
 
-  for await (const line of readLines(counted())) {
-    lineNo++
-    if (!columns) {
+  try {
+    for await (const line of readLines(counted())) {
+      lineNo++
+      if (!columns) {
+        if (line.trim() === '') continue
+        const header = readLightningHeader(line)
+        if (header.problems.length) return fail(`The file's columns are not right. ${header.problems.join(' ')}`)
+        columns = header.columns
+        continue
+      }
       if (line.trim() === '') continue
-      const header = readLightningHeader(line)
-      if (header.problems.length) return fail(`The file's columns are not right. ${header.problems.join(' ')}`)
-      columns = header.columns
-      continue
+      s.rows++
+      if (s.rows > LIGHTNING_LIMITS.maxRows) return fail(`The file has more than ${LIGHTNING_LIMITS.maxRows.toLocaleString('en-GB')} records, the most one upload may hold. Split it by period or region.`)
+      const r = parseLightningRow(splitCsvLine(line), columns)
+      if (!isRecord(r)) {
+        errorCount++
+        if (rowErrors.length < LIGHTNING_LIMITS.maxListedErrors) rowErrors.push({ line: lineNo, message: r.problems.join('; ') })
+        continue
+      }
+      if (r.type === 'ground') {
+        s.groundRecords++
+        if (r.peakCurrentKa < 0) s.negativeGround++
+        else s.positiveGround++
+      } else s.cloudRecords++
+      if (r.locationErrorKm !== null) s.withLocationError++
+      if (r.timeMs < first) first = r.timeMs
+      if (r.timeMs > last) last = r.timeMs
+      if (r.latDeg < minLat) minLat = r.latDeg
+      if (r.latDeg > maxLat) maxLat = r.latDeg
+      if (r.lonDeg < minLon) minLon = r.lonDeg
+      if (r.lonDeg > maxLon) maxLon = r.lonDeg
     }
-    if (line.trim() === '') continue
-    s.rows++
-    if (s.rows > LIGHTNING_LIMITS.maxRows) return fail(`The file has more than ${LIGHTNING_LIMITS.maxRows.toLocaleString('en-GB')} records, the most one upload may hold. Split it by period or region.`)
-    const r = parseLightningRow(splitCsvLine(line), columns)
-    if (!isRecord(r)) {
-      errorCount++
-      if (rowErrors.length < LIGHTNING_LIMITS.maxListedErrors) rowErrors.push({ line: lineNo, message: r.problems.join('; ') })
-      continue
-    }
-    if (r.type === 'ground') {
-      s.groundRecords++
-      if (r.peakCurrentKa < 0) s.negativeGround++
-      else s.positiveGround++
-    } else s.cloudRecords++
-    if (r.locationErrorKm !== null) s.withLocationError++
-    if (r.timeMs < first) first = r.timeMs
-    if (r.timeMs > last) last = r.timeMs
-    if (r.latDeg < minLat) minLat = r.latDeg
-    if (r.latDeg > maxLat) maxLat = r.latDeg
-    if (r.lonDeg < minLon) minLon = r.lonDeg
-    if (r.lonDeg > maxLon) maxLon = r.lonDeg
+  } catch (error) {
+    // A line over the limit (a header of 10⁶ columns, a binary file) ends the reading there.
+    if (error instanceof LineTooLongError) return fail(error.message)
+    throw error
   }
   if (tooLarge) return fail(`The file is larger than ${LIGHTNING_LIMITS.maxBytes / 1024 / 1024} MB, the most one upload may be. Split it by period or region.`)
   if (!columns) return fail('The file is empty. The first line must name the columns time, latitude, longitude, peak_current_ka, type (optionally location_error_km).')

@@ -10,6 +10,7 @@ export async function* readLines(source: AsyncIterable<Buffer | string>, maxLine
     let start = 0
     let nl: number
     while ((nl = pending.indexOf('\n', start)) >= 0) {
+      if (nl - start > maxLineLength) throw new LineTooLongError(maxLineLength)
       yield stripCr(pending.slice(start, nl))
       start = nl + 1
     }
@@ -17,6 +18,7 @@ export async function* readLines(source: AsyncIterable<Buffer | string>, maxLine
     if (pending.length > maxLineLength) throw new LineTooLongError(maxLineLength)
   }
   pending += decoder.end()
+  if (pending.length > maxLineLength) throw new LineTooLongError(maxLineLength)
   if (pending.length > 0) yield stripCr(pending)
 }
 

@@ -1,17 +1,19 @@
 // Reading calibrations back: the list, one with its file and applications, the stored source.
 import { and, desc, eq } from 'drizzle-orm'
+import type { ArchivedFilter } from '../../shared/schemas/archive'
+import { archivedFilter } from '../archive/records'
 import { useDb } from '../db'
 import { calibrationApplications, calibrationFiles, calibrations, users } from '../db/schema'
 import { notFound } from '../utils/errors'
 
-export async function listCalibrations(organisationId: string) {
+export async function listCalibrations(organisationId: string, archived: ArchivedFilter = 'hide') {
   return useDb().select({
     id: calibrations.id, kind: calibrations.kind, title: calibrations.title, createdAt: calibrations.createdAt,
-    createdBy: users.name, fileName: calibrationFiles.fileName, inputs: calibrations.inputs, results: calibrations.results,
+    createdBy: users.name, fileName: calibrationFiles.fileName, inputs: calibrations.inputs, results: calibrations.results, archivedAt: calibrations.archivedAt,
   }).from(calibrations)
     .innerJoin(calibrationFiles, eq(calibrationFiles.id, calibrations.fileId))
     .leftJoin(users, eq(users.id, calibrations.createdBy))
-    .where(eq(calibrations.organisationId, organisationId))
+    .where(and(eq(calibrations.organisationId, organisationId), archivedFilter(calibrations.archivedAt, archived)))
     .orderBy(desc(calibrations.createdAt))
 }
 

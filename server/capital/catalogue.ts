@@ -2,7 +2,7 @@
 import { and, asc, eq, inArray } from 'drizzle-orm'
 import type { ActionEffect, OptionEffect } from '../../shared/capital/actions'
 import type { Database } from '../db'
-import { capitalActions, mitigationOptions, sites, tanks } from '../db/schema'
+import { auditEvents, capitalActions, mitigationOptions, sites, tanks } from '../db/schema'
 
 export type OptionRow = typeof mitigationOptions.$inferSelect
 
@@ -18,10 +18,13 @@ export const STARTER_CATALOGUE: Array<Omit<typeof mitigationOptions.$inferInsert
   { kind: 'static_dissipator', name: 'Static dissipator', fixedCost: 3500, rate: 0, costBasis: 'each' },
 ]
 
-/** Adds the starter catalogue when the organisation has none yet. */
+/** Adds the starter catalogue when the organisation has none yet (and never deleted one: then an empty catalogue is what it chose). */
 export async function ensureCatalogue(db: Database, organisationId: string): Promise<void> {
   const [any] = await db.select({ id: mitigationOptions.id }).from(mitigationOptions).where(eq(mitigationOptions.organisationId, organisationId)).limit(1)
   if (any) return
+  const [deleted] = await db.select({ id: auditEvents.id }).from(auditEvents)
+    .where(and(eq(auditEvents.organisationId, organisationId), eq(auditEvents.entity, 'mitigation_option'), eq(auditEvents.action, 'delete'))).limit(1)
+  if (deleted) return
   await db.insert(mitigationOptions).values(STARTER_CATALOGUE.map(o => ({ ...o, organisationId }))).onConflictDoNothing()
 }
 

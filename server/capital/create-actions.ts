@@ -12,7 +12,7 @@ import { optionEffect, type OptionRow } from './catalogue'
 export type CreateActions = z.output<typeof createActionsSchema>
 
 export class ActionInputError extends Error {
-  constructor(readonly statusCode: 400 | 404, message: string) { super(message) }
+  constructor(readonly statusCode: 400 | 404 | 409, message: string) { super(message) }
 }
 
 /** The tank measures a cost rule needs. */
@@ -32,6 +32,7 @@ export function priceAction(option: OptionRow, tank: CostTank | null): number {
 export async function createActions(tx: Database, organisationId: string, userId: string, input: CreateActions) {
   const [option] = await tx.select().from(mitigationOptions).where(and(eq(mitigationOptions.id, input.optionId), eq(mitigationOptions.organisationId, organisationId)))
   if (!option) throw new ActionInputError(404, 'Option not found.')
+  if (option.archivedAt) throw new ActionInputError(409, `The option "${option.name}" is archived. Restore it in the catalogue to add actions with it.`)
   if (option.kind === 'mast') {
     if (!input.siteId || input.mastXM === undefined || input.mastYM === undefined) throw new ActionInputError(400, 'A mast needs a site and its position (x and y in m).')
     const [site] = await tx.select({ id: sites.id }).from(sites).where(and(eq(sites.id, input.siteId), eq(sites.organisationId, organisationId)))

@@ -16,7 +16,7 @@ import type { ScenarioSpec } from './scenario-task'
 import { recordAudit } from '../utils/audit'
 
 export class EvaluationStartError extends Error {
-  constructor(readonly statusCode: 400 | 404, message: string) { super(message) }
+  constructor(readonly statusCode: 400 | 404 | 409, message: string) { super(message) }
 }
 
 export interface StartEvaluation { assumptionVersionId: string, seed?: number, samplesPerTank: number, planId?: string }
@@ -26,10 +26,11 @@ export const bundleKey = (siteId: string) => `bundle:${siteId}`
 
 export async function startEvaluation(input: StartEvaluation, by: { userId: string | null, organisationId: string }) {
   const db = useDb()
-  const [version] = await db.select({ v: assumptionSetVersions }).from(assumptionSetVersions)
+  const [version] = await db.select({ v: assumptionSetVersions, setName: assumptionSets.name, archivedAt: assumptionSets.archivedAt }).from(assumptionSetVersions)
     .innerJoin(assumptionSets, eq(assumptionSets.id, assumptionSetVersions.assumptionSetId))
     .where(and(eq(assumptionSetVersions.id, input.assumptionVersionId), eq(assumptionSets.organisationId, by.organisationId)))
   if (!version) throw new EvaluationStartError(404, 'Assumption-set version not found.')
+  if (version.archivedAt) throw new EvaluationStartError(409, `The assumption set "${version.setName}" is archived. Restore it or choose another set.`)
   let actionIds: string[] | undefined
   if (input.planId) {
     const [plan] = await db.select().from(capitalPlans).where(and(eq(capitalPlans.id, input.planId), eq(capitalPlans.organisationId, by.organisationId)))

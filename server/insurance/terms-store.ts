@@ -1,7 +1,9 @@
 // Terms sets, their versions and per-site rows. A version a run recorded never changes: saving it
 // then makes the set's next version, so every run's terms stay exactly as they were.
-import { and, asc, desc, eq, max } from 'drizzle-orm'
+import { and, asc, desc, eq, isNull, max } from 'drizzle-orm'
 import type { SiteTerms } from '../../shared/insurance/terms'
+import type { ArchivedFilter } from '../../shared/schemas/archive'
+import { archivedFilter } from '../archive/records'
 import type { LayerInput, SiteTermsInput } from '../../shared/schemas/insurance'
 import type { PortfolioLayer } from '../../shared/insurance/layers'
 import { useDb, type Database } from '../db'
@@ -24,12 +26,12 @@ export async function listTermsVersions(setId: string) {
 }
 
 /** The organisation's terms sets with their portfolio's name and newest version number. */
-export async function listTermsSets(organisationId: string) {
+export async function listTermsSets(organisationId: string, archived: ArchivedFilter = 'hide') {
   const rows = await useDb().select({ set: policyTermsSets, portfolioName: portfolios.name, latest: max(policyTermsVersions.version) })
     .from(policyTermsSets)
     .leftJoin(portfolios, eq(portfolios.id, policyTermsSets.portfolioId))
     .leftJoin(policyTermsVersions, eq(policyTermsVersions.termsSetId, policyTermsSets.id))
-    .where(eq(policyTermsSets.organisationId, organisationId))
+    .where(and(eq(policyTermsSets.organisationId, organisationId), archivedFilter(policyTermsSets.archivedAt, archived)))
     .groupBy(policyTermsSets.id, portfolios.name)
     .orderBy(asc(policyTermsSets.name))
   return rows.map(r => ({ ...r.set, portfolioName: r.portfolioName, latestVersion: r.latest }))
@@ -96,7 +98,8 @@ export async function addTermsVersion(tx: Database, setId: string, userId: strin
 export async function recordRunTerms(tx: Database, runId: string, organisationId: string, portfolioId: string): Promise<string | null> {
   const [latest] = await tx.select({ id: policyTermsVersions.id }).from(policyTermsVersions)
     .innerJoin(policyTermsSets, eq(policyTermsSets.id, policyTermsVersions.termsSetId))
-    .where(and(eq(policyTermsSets.organisationId, organisationId), eq(policyTermsSets.portfolioId, portfolioId)))
+    // Archived terms are kept for the runs that used them, and new runs no longer record them.
+    .where(and(eq(policyTermsSets.organisationId, organisationId), eq(policyTermsSets.portfolioId, portfolioId), isNull(policyTermsSets.archivedAt)))
     .orderBy(desc(policyTermsVersions.version)).limit(1).for('update')
   if (!latest) return null
   await tx.insert(runTerms).values({ runId, termsVersionId: latest.id })

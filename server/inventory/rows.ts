@@ -2,6 +2,7 @@
 // or row-level errors naming the sheet, row, column and what to do.
 import type { z } from 'zod'
 import { COMPONENT_CLASSES, CONTENTS_LABELS, GROUNDING_LABELS, MATERIAL_LABELS, STRUCTURE_LABELS, siteSchema, structureSchema, tankSchema, type ComponentClass, type SiteRecord, type StructureRecord, type TankRecord } from '../../shared/schemas/inventory'
+import { inWords } from '../../shared/schemas/messages'
 import { SHEET_COLUMNS, SHEET_NAMES, type ColumnSpec, type SheetName } from '../../shared/inventory-layout'
 import type { ParsedFile, RawCell } from './workbook'
 
@@ -160,14 +161,14 @@ export function validateFile(file: ParsedFile): ValidatedFile {
       const values = convertRow(sheet, r.rowNumber, r.cells, index, out.errors)
       if (!values) continue
       if (sheet === 'Sites') {
-        const parsed = siteSchema.safeParse(values)
+        const parsed = siteSchema.safeParse(values, { error: inWords })
         if (parsed.success) out.sites.push({ row: r.rowNumber, record: parsed.data })
         else pushZodErrors(sheet, r.rowNumber, parsed.error, p => fields.get(String(p[0])) ?? String(p[0]), out.errors)
       } else if (sheet === 'Tanks') {
         const { components, problems } = collectComponents(values)
         for (const p of problems) out.errors.push({ sheet, row: r.rowNumber, column: p.column, message: p.message })
         if (problems.length > 0) continue
-        const parsed = tankSchema.safeParse({ ...values, components })
+        const parsed = tankSchema.safeParse({ ...values, components }, { error: inWords })
         if (parsed.success) out.tanks.push({ row: r.rowNumber, siteExternalId: String(values.siteExternalId), record: parsed.data })
         else {
           pushZodErrors(sheet, r.rowNumber, parsed.error, (p) => {
@@ -179,7 +180,7 @@ export function validateFile(file: ParsedFile): ValidatedFile {
           }, out.errors)
         }
       } else {
-        const parsed = structureSchema.safeParse(values)
+        const parsed = structureSchema.safeParse(values, { error: inWords })
         if (parsed.success) out.structures.push({ row: r.rowNumber, siteExternalId: String(values.siteExternalId), record: parsed.data })
         else pushZodErrors(sheet, r.rowNumber, parsed.error, p => fields.get(String(p[0])) ?? String(p[0]), out.errors)
       }

@@ -5,8 +5,20 @@ import ExcelJS from 'exceljs'
 import { neutraliseFormula } from '../../shared/csv'
 import { MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, SHEET_COLUMNS, SHEET_NAMES, type ColumnSpec, type SheetName } from '../../shared/inventory-layout'
 
-/** A problem with the file as a whole: nothing in it is looked at further. */
-export class ImportFileError extends Error {}
+/** A problem with the file as a whole: nothing in it is looked at further. `status` 413 for files too large to read. */
+export class ImportFileError extends Error {
+  constructor(message: string, readonly status: 400 | 413 = 400) { super(message) }
+}
+
+/** Limits on what one upload may make the reader hold: checked before the work, not after. */
+export const READ_LIMITS = {
+  /** Sum of the uncompressed sizes of a workbook's zip entries (the XML ExcelJS would inflate). */
+  maxInflatedBytes: 150 * 1024 * 1024,
+  maxZipEntries: 1000,
+  /** A CSV line (record) and its fields. */
+  maxLineChars: 64 * 1024,
+  maxColumns: 200,
+}
 
 export type RawCell = string | number | boolean | Date | { formula: string } | { error: string } | null
 
@@ -27,7 +39,10 @@ export async function readInventoryFile(data: Buffer, fileName: string): Promise
   }
   if (data.length === 0) throw new ImportFileError('The file is empty.')
   const lower = fileName.toLowerCase()
-  if (startsWith(data, ZIP_MAGIC)) return { kind: 'xlsx', sheets: await readXlsx(data) }
+  if (startsWith(data, ZIP_MAGIC)) {
+    checkZipDirectory(data)
+    return { kind: 'xlsx', sheets: await readXlsx(data) }
+  }
   if (startsWith(data, OLE_MAGIC)) throw new ImportFileError('This is an older .xls workbook. Open it in a spreadsheet program and save it as .xlsx, then upload it again.')
   if (lower.endsWith('.xlsx')) throw new ImportFileError('The workbook could not be read: the file is damaged or is not really an .xlsx workbook. Open it in a spreadsheet program and save it again as .xlsx.')
   if (!lower.endsWith('.csv') && !lower.endsWith('.txt')) {
@@ -39,6 +54,38 @@ export async function readInventoryFile(data: Buffer, fileName: string): Promise
 }
 
 // ---------------------------------------------------------------- XLSX
+
+const MB = 1024 * 1024
+
+/**
+ * Reads a zip's central directory (PKWARE APPNOTE.TXT 4.3.12 and 4.3.16) and refuses the file when
+ * its entries would inflate beyond the limit, before anything is inflated. A directory that cannot
+ * be found, or ZIP64 sizes (a workbook never needs them), are refused too.
+ */
+export function checkZipDirectory(data: Buffer): void {
+  const damaged = () => new ImportFileError('The workbook could not be read: the file is damaged or is not really an .xlsx workbook. Open it in a spreadsheet program and save it again as .xlsx.')
+  // End of central directory: 22 bytes plus a comment of up to 65,535 bytes, at the end of the file.
+  let eocd = -1
+  for (let i = data.length - 22; i >= Math.max(0, data.length - 22 - 0xffff); i--) {
+    if (data.readUInt32LE(i) === 0x06054b50) { eocd = i; break }
+  }
+  if (eocd < 0) throw damaged()
+  const entries = data.readUInt16LE(eocd + 10)
+  const dirOffset = data.readUInt32LE(eocd + 16)
+  if (entries > READ_LIMITS.maxZipEntries) throw new ImportFileError(`The workbook holds ${entries} parts; a workbook from the template holds a few dozen. Save it again from a spreadsheet program.`, 413)
+  let at = dirOffset
+  let inflated = 0
+  for (let n = 0; n < entries; n++) {
+    if (at + 46 > data.length || data.readUInt32LE(at) !== 0x02014b50) throw damaged()
+    const size = data.readUInt32LE(at + 24)
+    if (size === 0xffffffff) throw new ImportFileError(`The workbook would expand to more than ${READ_LIMITS.maxInflatedBytes / MB} MB when read, the limit. Split it into several files.`, 413)
+    inflated += size
+    if (inflated > READ_LIMITS.maxInflatedBytes) {
+      throw new ImportFileError(`The workbook would expand to more than ${READ_LIMITS.maxInflatedBytes / MB} MB when read, the limit (it is ${(data.length / MB).toFixed(1)} MB compressed). Split it into several files, or remove formatting and unused sheets.`, 413)
+    }
+    at += 46 + data.readUInt16LE(at + 28) + data.readUInt16LE(at + 30) + data.readUInt16LE(at + 32)
+  }
+}
 
 async function readXlsx(data: Buffer): Promise<RawWorkbook> {
   const workbook = new ExcelJS.Workbook()
@@ -70,38 +117,52 @@ async function readXlsx(data: Buffer): Promise<RawWorkbook> {
   return out
 }
 
+// PostgreSQL text cannot hold U+0000; a workbook may (escaped as _x0000_), so it is dropped.
+const withoutNul = (text: string) => text.replaceAll('\u0000', '')
+
 function toRawCell(value: unknown): RawCell {
   if (value === null || value === undefined) return null
-  if (typeof value === 'string' || typeof value === 'number' || typeof value === 'boolean' || value instanceof Date) return value
+  if (typeof value === 'string') return withoutNul(value)
+  if (typeof value === 'number' || typeof value === 'boolean' || value instanceof Date) return value
   if (typeof value === 'object') {
     const v = value as Record<string, unknown>
     if ('formula' in v || 'sharedFormula' in v) return { formula: String(v.formula ?? v.sharedFormula) }
     if ('error' in v) return { error: String(v.error) }
-    if (Array.isArray(v.richText)) return (v.richText as { text: string }[]).map(r => r.text).join('')
-    if ('text' in v) return String(v.text)
+    if (Array.isArray(v.richText)) return withoutNul((v.richText as { text: string }[]).map(r => r.text).join(''))
+    if ('text' in v) return withoutNul(String(v.text))
   }
-  return String(value)
+  return withoutNul(String(value))
 }
 
 // ---------------------------------------------------------------- CSV
 
-/** RFC 4180 fields: commas, double quotes doubled inside quoted fields, CRLF or LF line ends. */
-export function parseCsv(text: string): string[][] {
+/**
+ * RFC 4180 fields: commas, double quotes doubled inside quoted fields, CRLF or LF line ends. A
+ * record longer than `maxLineChars` or with more than `maxColumns` fields ends the reading.
+ */
+export function parseCsv(text: string, limits: { maxLineChars: number, maxColumns: number } = READ_LIMITS): string[][] {
   const rows: string[][] = []
   let row: string[] = []
   let field = ''
   let quoted = false
+  let recordStart = 0
+  const tooLong = () => new ImportFileError(`Line ${rows.length + 1} is longer than ${limits.maxLineChars / 1024} kB, the limit for one record. Is this really a CSV file of sites, tanks or structures?`)
+  const tooWide = () => new ImportFileError(`Line ${rows.length + 1} has more than ${limits.maxColumns} columns, the limit; the template's sheets have about 30. Check the separator (commas) and the quotes.`)
   for (let i = 0; i < text.length; i++) {
     const c = text[i]!
+    if (i - recordStart > limits.maxLineChars) throw tooLong()
     if (quoted) {
       if (c === '"') {
         if (text[i + 1] === '"') { field += '"'; i++ } else quoted = false
       } else field += c
     } else if (c === '"' && field === '') quoted = true
-    else if (c === ',') { row.push(field); field = '' }
-    else if (c === '\n' || c === '\r') {
+    else if (c === ',') {
+      row.push(field); field = ''
+      if (row.length >= limits.maxColumns) throw tooWide()
+    } else if (c === '\n' || c === '\r') {
       if (c === '\r' && text[i + 1] === '\n') i++
       row.push(field); rows.push(row); row = []; field = ''
+      recordStart = i + 1
     } else field += c
   }
   if (field !== '' || row.length > 0) { row.push(field); rows.push(row) }

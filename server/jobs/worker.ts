@@ -2,18 +2,25 @@
 // Any number may run, here or on other machines pointed at the same DATABASE_URL.
 import { closeDb } from '../db/index'
 import { closeThreadPool } from '../runs/thread-pool'
+import { BEATING_QUEUES, startReaper, withHeartbeat } from './heartbeat'
 import { stopBoss, useBoss } from './queue'
 import { jobRegistry } from './registry'
 import type { JobName } from './types'
+
+let stopReaper: (() => void) | undefined
 
 async function main() {
   const boss = await useBoss({ supervise: true })
   for (const name of Object.keys(jobRegistry) as JobName[]) {
     const entry = jobRegistry[name]
+    const handler = entry.handler as Parameters<typeof boss.work>[2]
+    // Long jobs beat while worked, so a dead worker's jobs are handed on in seconds (heartbeat.ts).
+    const worked = (BEATING_QUEUES as readonly JobName[]).includes(name) ? withHeartbeat(name, handler) : handler
     for (let i = 0; i < entry.concurrency(); i++) {
-      await boss.work(name, entry.work, entry.handler as Parameters<typeof boss.work>[2])
+      await boss.work(name, entry.work, worked)
     }
   }
+  stopReaper = startReaper(boss)
   console.log(`[worker] ready (pid ${process.pid}); queues: ${Object.keys(jobRegistry).join(', ')}`)
 }
 
@@ -22,6 +29,7 @@ async function shutdown(signal: string) {
   if (stopping) return
   stopping = true
   console.log(`[worker] ${signal}: finishing current jobs, then stopping`)
+  stopReaper?.()
   await stopBoss().catch(() => {})
   await closeThreadPool().catch(() => {})
   await closeDb().catch(() => {})

@@ -17,17 +17,18 @@ import { findReadablePortfolio, inputHash, loadPortfolioSites } from './snapshot
 export type StartRun = z.output<typeof startRunSchema>
 
 export class RunStartError extends Error {
-  constructor(readonly statusCode: 400 | 404, message: string) { super(message) }
+  constructor(readonly statusCode: 400 | 404 | 409, message: string) { super(message) }
 }
 
 export async function startRun(input: StartRun, by: { userId: string | null, organisationId: string }, options: { retryOf?: string } = {}) {
   const db = useDb()
   const portfolio = await findReadablePortfolio(db, by.organisationId, input.portfolioId)
   if (!portfolio) throw new RunStartError(404, 'Portfolio not found.')
-  const [version] = await db.select({ v: assumptionSetVersions, setName: assumptionSets.name }).from(assumptionSetVersions)
+  const [version] = await db.select({ v: assumptionSetVersions, setName: assumptionSets.name, archivedAt: assumptionSets.archivedAt }).from(assumptionSetVersions)
     .innerJoin(assumptionSets, eq(assumptionSets.id, assumptionSetVersions.assumptionSetId))
     .where(and(eq(assumptionSetVersions.id, input.assumptionVersionId), eq(assumptionSets.organisationId, by.organisationId)))
   if (!version) throw new RunStartError(404, 'Assumption-set version not found.')
+  if (version.archivedAt) throw new RunStartError(409, `The assumption set "${version.setName}" is archived. Restore it (Assumptions → Show archived) or choose another set.`)
   const assumptions = parseAssumptions(version.v.parameters)
   const snapshot = await loadPortfolioSites(db, portfolio.id, assumptions)
   if (snapshot.length === 0) throw new RunStartError(400, `Portfolio "${portfolio.name}" has no sites to simulate. Add sites first.`)

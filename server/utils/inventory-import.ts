@@ -5,20 +5,22 @@ import type { H3Event } from 'h3'
 import { useDb } from '../db'
 import { inventoryImports, portfolios } from '../db/schema'
 import { applyImport, planImport, type ImportPlan } from '../inventory/import'
-import { validateFile } from '../inventory/rows'
-import { ImportFileError, readInventoryFile } from '../inventory/workbook'
+import { parseOnThread, UploadReadError } from '../inventory/parse-pool'
 import type { Member } from './auth'
 
 const MAX_STORED_ERRORS = 1000
 
+/** Reads the file on an upload thread (never on this event loop), then compares it with the inventory. */
 async function planFor(organisationId: string, data: Buffer, fileName: string): Promise<ImportPlan> {
+  let outcome
   try {
-    const file = await readInventoryFile(data, fileName)
-    return await planImport(useDb(), organisationId, validateFile(file))
+    outcome = await parseOnThread({ data, fileName })
   } catch (error) {
-    if (error instanceof ImportFileError) badRequest(error.message)
+    if (error instanceof UploadReadError) throw createError({ statusCode: error.status, statusMessage: error.message })
     throw error
   }
+  if (!outcome.ok) throw createError({ statusCode: outcome.status, statusMessage: outcome.message })
+  return await planImport(useDb(), organisationId, outcome.file)
 }
 
 /** Reads an upload and stores the preview (counts, row errors, original bytes). */

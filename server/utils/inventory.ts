@@ -95,14 +95,7 @@ export const TANK_UNIQUE = {
 export const STRUCTURE_UNIQUE = { site_structures_site_external_id_unique: 'Another structure on this site already has this reference.' }
 export const PORTFOLIO_UNIQUE = { portfolios_org_name_unique: 'Your organisation already has a portfolio with this name.' }
 
-/** Reads the body and validates it with a shared zod schema; a 400 names the first problem and carries every field's message. */
+/** Reads the body and validates it with a shared zod schema (server/utils/validation.ts). */
 export async function readInventoryBody<T extends z.ZodType>(event: H3Event, schema: T): Promise<z.output<T>> {
-  const body = await readBody(event).catch(() => undefined)
-  const parsed = schema.safeParse(body ?? {})
-  if (!parsed.success) {
-    const fields: Record<string, string> = {}
-    for (const issue of parsed.error.issues) fields[issue.path.join('.')] ??= issue.message
-    badRequest(parsed.error.issues[0]?.message ?? 'The request is not valid.', { fields })
-  }
-  return parsed.data
+  return readValidBody(event, schema)
 }

@@ -71,8 +71,8 @@ export const memberUpdateSchema = z.object({ role: roleEnum })
 export const auditQuerySchema = z.object({
   person: z.string().uuid().optional(),
   entity: z.string().trim().min(1).max(60).optional(),
-  from: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.').optional(),
-  to: z.string().regex(/^\d{4}-\d{2}-\d{2}$/, 'Use a date like 2026-03-31.').optional(),
+  from: z.iso.date('Use a real calendar date like 2026-03-31.').optional(),
+  to: z.iso.date('Use a real calendar date like 2026-03-31.').optional(),
   page: z.coerce.number().int().min(1).max(10_000).default(1),
 })
 export type AuditQuery = z.infer<typeof auditQuerySchema>

@@ -10,7 +10,8 @@ const money = (label: string) => z.number(`${label} is a number.`).min(0, `${lab
 export const optionCostSchema = z.object({
   name: z.string().trim().min(1, 'Give the option a name.').max(120, 'At most 120 characters.'),
   fixedCost: money('The fixed cost'),
-  rate: money('The rate'),
+  // Capped so that rate × the largest measure (a tank's area, m²) plus the fixed cost fits the numeric(16,2) cost column.
+  rate: money('The rate').max(1e9, 'The rate is at most 1,000,000,000 per unit.'),
   costBasis: z.enum(COST_BASIS_VALUES, 'Choose what the rate is per.'),
   costStep: z.number('The costing step is a number.').min(0.01, 'The costing step is at least 0.01.').max(1e9),
   shieldRatingKa: z.number().gt(0, 'A shield rating is above 0 kA.').max(1000, 'At most 1,000 kA.').nullable().optional(),

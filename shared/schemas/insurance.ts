@@ -1,13 +1,15 @@
 // Policy terms and the financial view: the zod schemas used by the terms editor, the routes and the import.
 import { z } from 'zod'
+import { fitsNumeric, formatNumericMax, MONEY_NUMERIC, numericMax } from '../schemas/money'
 import { RISK_LOAD_METHODS } from '../insurance/pricing'
 import { LAYER_KINDS } from '../insurance/layers'
 
-/** Largest amount a numeric(16, 2) column holds. */
-const MAX_MONEY = 99_999_999_999_999
+/** Largest amount the terms' numeric(16, 2) columns hold. */
+const MAX_MONEY = numericMax(MONEY_NUMERIC.insurance)
+const TOO_LARGE = `is above ${formatNumericMax(MONEY_NUMERIC.insurance)}, the largest amount stored.`
 
-const amount = (what: string) => z.number(`${what} is an amount.`).min(0, `${what} is 0 or more.`).max(MAX_MONEY, `${what} is too large.`)
-const limit = (what: string) => z.number(`${what} is an amount, or empty for no limit.`).gt(0, `${what} is more than 0, or empty for no limit.`).max(MAX_MONEY, `${what} is too large.`).nullable()
+const amount = (what: string) => z.number(`${what} is an amount.`).min(0, `${what} is 0 or more.`).max(MAX_MONEY, `${what} ${TOO_LARGE}`).refine(v => fitsNumeric(v, MONEY_NUMERIC.insurance), `${what} ${TOO_LARGE}`)
+const limit = (what: string) => z.number(`${what} is an amount, or empty for no limit.`).gt(0, `${what} is more than 0, or empty for no limit.`).max(MAX_MONEY, `${what} ${TOO_LARGE}`).refine(v => fitsNumeric(v, MONEY_NUMERIC.insurance), `${what} ${TOO_LARGE}`).nullable()
 
 export const siteTermsSchema = z.object({
   siteId: z.uuid('Unknown site.'),

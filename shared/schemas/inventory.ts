@@ -1,6 +1,7 @@
 // Inventory records as the forms, the routes and the spreadsheet import all validate them.
 // Units: m for lengths and positions, flashes/km²/yr, days/yr, kA, °C, money in the organisation's currency.
 import { z } from 'zod'
+import { fitsNumeric, formatNumericMax, MONEY_NUMERIC, roundToScale } from './money'
 
 // The engine's input contract uses these exact values (ComponentClass, TankMaterial, Contents, StructureKind).
 export const TANK_MATERIALS = ['frp', 'polyethylene', 'steel', 'other'] as const
@@ -26,12 +27,15 @@ export const COMPONENT_LABELS: Record<ComponentClass, string> = {
 export const STRUCTURE_LABELS: Record<StructureKind, string> = { mast: 'Mast', stack: 'Stack', ogw_support: 'Overhead ground wire support', building: 'Building' }
 export const GROUNDING_LABELS: Record<Grounding, string> = { none: 'None', single: 'Single point', multiple: 'Multiple points' }
 
-const MAX_MONEY = 1e12
 const text = (max: number) => z.string().trim().max(max, `Keep it under ${max} characters.`)
 const requiredText = (what: string, max = 100) => z.string({ error: `Enter ${what}.` }).trim().min(1, `Enter ${what}.`).max(max, `Keep it under ${max} characters.`)
 const num = (what: string) => z.number({ error: `Enter ${what} as a number.` }).refine(Number.isFinite, `Enter ${what} as a number.`)
-/** Money: non-negative, rounded to cents as the database stores it (numeric(14,2)). */
-const money = (what: string) => num(what).min(0, `${what[0]!.toUpperCase()}${what.slice(1)} cannot be negative.`).max(MAX_MONEY, `${what[0]!.toUpperCase()}${what.slice(1)} is above 10¹².`).transform(v => Math.round(v * 100) / 100)
+/** Money: non-negative, rounded to cents as the database stores it, and no more than its numeric(14,2) column holds. */
+const money = (what: string) => {
+  const What = `${what[0]!.toUpperCase()}${what.slice(1)}`
+  return num(what).min(0, `${What} cannot be negative.`).transform(v => roundToScale(v, MONEY_NUMERIC.inventory.scale))
+    .refine(v => fitsNumeric(v, MONEY_NUMERIC.inventory), `${What} is above ${formatNumericMax(MONEY_NUMERIC.inventory)}, the largest amount stored.`)
+}
 const length = (what: string, max: number) => num(what).gt(0, `${what[0]!.toUpperCase()}${what.slice(1)} must be above 0 m.`).max(max, `${what[0]!.toUpperCase()}${what.slice(1)} must be at most ${max} m.`)
 const position = (axis: 'x' | 'y') => num(`the ${axis} position in metres`).min(-5000, 'Positions lie within 5,000 m of the site reference point.').max(5000, 'Positions lie within 5,000 m of the site reference point.')
 

@@ -24,8 +24,8 @@ export function appEnv(o: AppOptions): NodeJS.ProcessEnv {
     STORMLEDGER_MAIL_FAKE_PORT: String(o.mailPort),
     STORMLEDGER_PUBLIC_URL: `http://localhost:${o.port}`,
     SMTP_HOST: '',
-    // Short expiry and frequent maintenance so the crash tests see a dead worker's chunk handed on quickly.
-    STORMLEDGER_CHUNK_EXPIRE_SECONDS: '30',
+    // The production expiry (600 s): a dead worker's chunks must be handed on by their heartbeats,
+    // not by expiry. Frequent maintenance so retries are picked up quickly.
     STORMLEDGER_QUEUE_MAINTENANCE_SECONDS: '2',
     NODE_ENV: 'production',
   }

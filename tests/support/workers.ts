@@ -4,7 +4,11 @@ import { resolve } from 'node:path'
 import { inject } from 'vitest'
 import { appEnv, root } from './app-process'
 
-export interface WorkerProcess { child: ChildProcess, output: () => string, ready: Promise<void> }
+/**
+ * `child` is tsx's launcher; the worker itself is the launcher's child, whose pid (`workerPid`, known
+ * once ready) is what its chunks record and what a crash test must kill.
+ */
+export interface WorkerProcess { child: ChildProcess, output: () => string, ready: Promise<void>, workerPid: () => number | undefined }
 
 export function spawnWorker(extraEnv: Record<string, string> = {}): WorkerProcess {
   const child = spawn(resolve(root, 'node_modules/.bin/tsx'), ['server/jobs/worker.ts'], {
@@ -25,15 +29,19 @@ export function spawnWorker(extraEnv: Record<string, string> = {}): WorkerProces
       if (child.exitCode !== null) { clearInterval(timer); rej(new Error(`worker exited: ${out}`)) }
     }, 100)
   })
-  return { child, output: () => out, ready }
+  const workerPid = () => {
+    const m = /\[worker\] ready \(pid (\d+)\)/.exec(out)
+    return m ? Number(m[1]) : undefined
+  }
+  return { child, output: () => out, ready, workerPid }
 }
 
 export async function stopWorker(w: WorkerProcess, signal: NodeJS.Signals = 'SIGTERM'): Promise<void> {
   if (w.child.exitCode !== null || w.child.signalCode !== null) return
   const exited = new Promise(r => w.child.once('exit', r))
-  // tsx passes SIGTERM on to the worker and waits for it; SIGKILL cannot be passed on, so it goes to
-  // the whole group (tsx and the worker), as when a machine dies.
-  if (signal === 'SIGKILL') process.kill(-w.child.pid!, 'SIGKILL')
+  // SIGKILL cannot be relayed by the launcher: kill the worker itself (the launcher then exits).
+  const pid = w.workerPid()
+  if (signal === 'SIGKILL' && pid) process.kill(pid, 'SIGKILL')
   else w.child.kill(signal)
   await exited
 }

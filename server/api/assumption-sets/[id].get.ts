@@ -4,7 +4,7 @@ import { findSet, listVersions } from '~~/server/assumptions/versions'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, uuidParams.parse)
+  const { id } = readValidParams(event, uuidParams)
   const set = await findSet(member.organisationId, id)
   if (!set) notFound('Assumption set')
   return { set, versions: await listVersions(set.id) }

@@ -7,7 +7,7 @@ import { addVersion, mergeParameters } from '~~/server/assumptions/versions'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const body = await readValidatedBody(event, assumptionSetCreateSchema.parse)
+  const body = await readValidBody(event, assumptionSetCreateSchema)
   try {
     return await useDb().transaction(async (tx) => {
       const [set] = await tx.insert(assumptionSets).values({

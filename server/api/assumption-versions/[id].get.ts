@@ -4,7 +4,7 @@ import { findVersion } from '~~/server/assumptions/versions'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, uuidParams.parse)
+  const { id } = readValidParams(event, uuidParams)
   const row = await findVersion(member.organisationId, id)
   if (!row) notFound('Assumption-set version')
   return row

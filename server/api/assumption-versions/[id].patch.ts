@@ -9,8 +9,8 @@ import { addVersion, findVersion, mergeParameters } from '~~/server/assumptions/
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { id } = await getValidatedRouterParams(event, uuidParams.parse)
-  const body = await readValidatedBody(event, assumptionVersionEditSchema.parse)
+  const { id } = readValidParams(event, uuidParams)
+  const body = await readValidBody(event, assumptionVersionEditSchema)
   const row = await findVersion(member.organisationId, id)
   if (!row) notFound('Assumption-set version')
   try {

@@ -4,6 +4,6 @@ import { auditQuerySchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })
-  const query = await getValidatedQuery(event, auditQuerySchema.parse)
+  const query = readValidQuery(event, auditQuerySchema)
   return await readAuditLog(member.organisationId, query)
 })

@@ -8,7 +8,7 @@ import { passwordChangedMail } from '~~/server/mail/templates'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.everyone })
-  const body = await readValidatedBody(event, changePasswordSchema.parse)
+  const body = await readValidBody(event, changePasswordSchema)
   const address = clientAddress(event)
   await assertSignInAllowed(event, member.user.email, address)
   const db = useDb()

@@ -9,7 +9,7 @@ import { users } from '~~/server/db/schema'
 const WRONG = 'That e-mail and password do not match an account.'
 
 export default defineEventHandler(async (event) => {
-  const body = await readValidatedBody(event, signInSchema.parse)
+  const body = await readValidBody(event, signInSchema)
   const address = clientAddress(event)
   await assertSignInAllowed(event, body.email, address)
 

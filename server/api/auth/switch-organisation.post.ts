@@ -7,7 +7,7 @@ import { users } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.everyone })
-  const body = await readValidatedBody(event, switchOrganisationSchema.parse)
+  const body = await readValidBody(event, switchOrganisationSchema)
   const target = (await membershipsOf(member.user.id)).find(m => m.organisationId === body.organisationId)
   if (!target) notFound('Organisation')
   const db = useDb()

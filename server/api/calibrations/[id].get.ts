@@ -4,6 +4,6 @@ import { getCalibration } from '~~/server/calibration/queries'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, z.object({ id: z.uuid() }).parse)
+  const { id } = readValidParams(event, z.object({ id: z.uuid() }))
   return getCalibration(member.organisationId, id)
 })

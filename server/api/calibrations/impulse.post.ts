@@ -4,7 +4,7 @@ import { runImpulseCalibration } from '~~/server/calibration/impulse'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const body = await readValidatedBody(event, impulseCalibrationSchema.parse)
+  const body = await readValidBody(event, impulseCalibrationSchema)
   setResponseStatus(event, 201)
   return runImpulseCalibration(member, event, body)
 })

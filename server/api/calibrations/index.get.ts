@@ -1,7 +1,9 @@
-// GET /api/calibrations — past calibrations of the organisation, newest first, with their headline figures.
+// GET /api/calibrations?archived=hide|include|only — past calibrations of the organisation, newest first, with their headline figures (archived ones hidden by default).
+import { archivedQuerySchema } from '~~/shared/schemas/archive'
 import { listCalibrations } from '~~/server/calibration/queries'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  return listCalibrations(member.organisationId)
+  const { archived } = readValidQuery(event, archivedQuerySchema)
+  return listCalibrations(member.organisationId, archived)
 })

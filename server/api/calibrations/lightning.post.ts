@@ -4,7 +4,7 @@ import { runLightningCalibration } from '~~/server/calibration/lightning'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const body = await readValidatedBody(event, lightningCalibrationSchema.parse)
+  const body = await readValidBody(event, lightningCalibrationSchema)
   setResponseStatus(event, 201)
   return runLightningCalibration(member, event, body)
 })

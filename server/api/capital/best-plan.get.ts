@@ -5,6 +5,6 @@ import { planForBudget } from '~~/server/capital/plans'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { budget, metric } = await getValidatedQuery(event, bestPlanQuerySchema.parse)
+  const { budget, metric } = readValidQuery(event, bestPlanQuerySchema)
   return { currency: member.currency, ...(await planForBudget(useDb(), member.organisationId, budget, metric)) }
 })

@@ -10,7 +10,7 @@ const query = z.object({ portfolioId: z.uuid().optional() })
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { portfolioId } = await getValidatedQuery(event, query.parse)
+  const { portfolioId } = readValidQuery(event, query)
   const db = useDb()
   let siteIds: string[]
   if (portfolioId) {

@@ -3,7 +3,7 @@ import { inviteSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })
-  const body = await readValidatedBody(event, inviteSchema.parse)
+  const body = await readValidBody(event, inviteSchema)
   setResponseStatus(event, 201)
   return { invitation: await createInvitation(event, member, body.email, body.role) }
 })

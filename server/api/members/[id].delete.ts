@@ -4,6 +4,6 @@ import { idParamsSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })
-  const { id } = await getValidatedRouterParams(event, idParamsSchema.parse)
+  const { id } = readValidParams(event, idParamsSchema)
   return await removeMember(event, member, id)
 })

@@ -4,7 +4,7 @@ import { idParamsSchema, memberUpdateSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })
-  const { id } = await getValidatedRouterParams(event, idParamsSchema.parse)
-  const body = await readValidatedBody(event, memberUpdateSchema.parse)
+  const { id } = readValidParams(event, idParamsSchema)
+  const body = await readValidBody(event, memberUpdateSchema)
   return { member: await changeMemberRole(event, member, id, body.role) }
 })

@@ -6,7 +6,7 @@ import { findTermsVersion, layersOf, versionRowsWithSites } from '~~/server/insu
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, termsIdParams.parse)
+  const { id } = readValidParams(event, termsIdParams)
   const row = await findTermsVersion(useDb(), member.organisationId, id)
   if (!row) notFound('Terms version')
   return { ...row, currency: member.currency, ...(await versionRowsWithSites(row.version.id, row.set.portfolioId)), layers: await layersOf(useDb(), row.version.id) }

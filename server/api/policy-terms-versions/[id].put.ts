@@ -9,8 +9,8 @@ import { addTermsVersion, findTermsVersion, layersOf, portfolioSiteIds, writeLay
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })
-  const { id } = await getValidatedRouterParams(event, termsIdParams.parse)
-  const body = await readValidatedBody(event, termsVersionSaveSchema.parse)
+  const { id } = readValidParams(event, termsIdParams)
+  const body = await readValidBody(event, termsVersionSaveSchema)
   const row = await findTermsVersion(useDb(), member.organisationId, id)
   if (!row) notFound('Terms version')
   const siteIds = await portfolioSiteIds(useDb(), row.set.portfolioId)

@@ -4,7 +4,7 @@ import { findTermsSet, listTermsVersions } from '~~/server/insurance/terms-store
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, termsIdParams.parse)
+  const { id } = readValidParams(event, termsIdParams)
   const set = await findTermsSet(member.organisationId, id)
   if (!set) notFound('Policy terms')
   return { set, versions: await listTermsVersions(set.id) }

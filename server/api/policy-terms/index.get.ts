@@ -1,7 +1,9 @@
-// GET /api/policy-terms — the organisation's policy-terms sets (one per portfolio) with their newest version.
+// GET /api/policy-terms?archived=hide|include|only — the organisation's policy-terms sets (one per portfolio) with their newest version (archived ones hidden by default).
+import { archivedQuerySchema } from '~~/shared/schemas/archive'
 import { listTermsSets } from '~~/server/insurance/terms-store'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  return listTermsSets(member.organisationId)
+  const { archived } = readValidQuery(event, archivedQuerySchema)
+  return listTermsSets(member.organisationId, archived)
 })

@@ -7,7 +7,7 @@ import { addTermsVersion } from '~~/server/insurance/terms-store'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })
-  const body = await readValidatedBody(event, termsSetCreateSchema.parse)
+  const body = await readValidBody(event, termsSetCreateSchema)
   await findReadablePortfolio(member, body.portfolioId)
   return useDb().transaction(async (tx) => {
     const [set] = await tx.insert(policyTermsSets).values({

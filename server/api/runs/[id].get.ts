@@ -4,7 +4,7 @@ import { getRun } from '~~/server/runs/queries'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
+  const { id } = readValidParams(event, runIdParams)
   const run = await getRun(member.organisationId, id)
   if (!run) notFound('Run')
   return run

@@ -13,7 +13,7 @@ const query = z.object({ a: z.uuid('Choose the first run.'), b: z.uuid('Choose t
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { a, b } = await getValidatedQuery(event, query.parse)
+  const { a, b } = readValidQuery(event, query)
   const [runA, runB] = await Promise.all([findSucceededRun(member.organisationId, a), findSucceededRun(member.organisationId, b)])
   if (!runA || !runB) notFound('Results of one of the runs')
   if (runA.portfolioId !== runB.portfolioId) badRequest('The two runs cover different portfolios; compare runs of the same portfolio.')

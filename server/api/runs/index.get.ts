@@ -6,6 +6,6 @@ const query = z.object({ portfolioId: z.uuid().optional() })
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { portfolioId } = await getValidatedQuery(event, query.parse)
+  const { portfolioId } = readValidQuery(event, query)
   return listRuns(member.organisationId, portfolioId)
 })

@@ -5,7 +5,7 @@ import { RunStartError, startRun } from '~~/server/runs/start'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const body = await readValidatedBody(event, startRunSchema.parse)
+  const body = await readValidBody(event, startRunSchema)
   try {
     const run = await startRun(body, { userId: member.user.id, organisationId: member.organisationId })
     setResponseStatus(event, 201)

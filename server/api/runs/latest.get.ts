@@ -6,7 +6,7 @@ const query = z.object({ portfolioId: z.uuid().optional() })
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { portfolioId } = await getValidatedQuery(event, query.parse)
+  const { portfolioId } = readValidQuery(event, query)
   const run = await latestSucceededRun(member.organisationId, portfolioId)
   if (!run) notFound('A finished run')
   return { id: run.id, portfolioId: run.portfolioId, portfolioName: run.portfolioName, mode: run.mode, finishedAt: run.finishedAt }

@@ -5,7 +5,7 @@ import { siteListQuerySchema } from '~~/shared/schemas/inventory'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const query = await getValidatedQuery(event, siteListQuerySchema.parse)
+  const query = readValidQuery(event, siteListQuerySchema)
   if (query.portfolioId) await findReadablePortfolio(member, query.portfolioId)
   return listSites(useDb(), member.organisationId, readableSites(member.organisationId), query)
 })

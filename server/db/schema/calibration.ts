@@ -43,9 +43,14 @@ export const calibrations = pgTable('calibrations', {
   inputs: jsonb('inputs').notNull(),
   results: jsonb('results').notNull(),
   createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  /** Archived: hidden from lists and pickers by default, kept for what used it (null: in use). */
+  archivedAt: timestamp('archived_at', { withTimezone: true }),
+  archivedBy: uuid('archived_by').references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
 }, t => [
   index('calibrations_org_created_idx').on(t.organisationId, t.createdAt),
+  index('calibrations_org_archived_idx').on(t.organisationId, t.archivedAt),
+  index('calibrations_archived_by_idx').on(t.archivedBy),
   index('calibrations_file_idx').on(t.fileId),
   index('calibrations_created_by_idx').on(t.createdBy),
   check('calibrations_title_present', sql`length(${t.title}) > 0`),

@@ -4,11 +4,12 @@ import { sql } from 'drizzle-orm'
 import { check, doublePrecision, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
+import { MONEY_NUMERIC } from '../../../shared/schemas/money'
 import { componentClass, sites, tanks } from './inventory'
 import { assumptionSetVersions } from './runs'
 
 /** Money with cents, read as numbers. */
-const money = (name: string) => numeric(name, { precision: 16, scale: 2, mode: 'number' })
+const money = (name: string) => numeric(name, { ...MONEY_NUMERIC.capital, mode: 'number' })
 
 export const mitigationKind = pgEnum('mitigation_kind', ['shield', 'remove_class', 'steel_tank', 'vapour_control', 'mast', 'grounding', 'static_dissipator'])
 export const costBasis = pgEnum('cost_basis', ['each', 'diameter_m', 'height_m', 'component_count', 'volume_m3'])
@@ -30,9 +31,14 @@ export const mitigationOptions = pgTable('mitigation_options', {
   costBasis: costBasis('cost_basis').notNull().default('each'),
   /** Costs are rounded up to whole steps (money), so plans are optimised exactly over whole steps. */
   costStep: money('cost_step').notNull().default(100),
+  /** Archived: hidden from lists and pickers by default, kept for what used it (null: in use). */
+  archivedAt: timestamp('archived_at', { withTimezone: true }),
+  archivedBy: uuid('archived_by').references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
 }, t => [
   uniqueIndex('mitigation_options_org_name_unique').on(t.organisationId, t.name),
+  index('mitigation_options_org_archived_idx').on(t.organisationId, t.archivedAt),
+  index('mitigation_options_archived_by_idx').on(t.archivedBy),
   check('mitigation_options_costs_nonnegative', sql`${t.fixedCost} >= 0 AND ${t.rate} >= 0 AND ${t.costStep} > 0`),
   check('mitigation_options_shield_rating', sql`${t.shieldRatingKa} IS NULL OR ${t.shieldRatingKa} > 0`),
   check('mitigation_options_mast', sql`${t.mastHeightM} IS NULL OR ${t.mastHeightM} > 0`),

@@ -3,12 +3,13 @@
 // the insurer's share); it is frozen once a run has recorded it, and editing it then makes the next
 // version. Money in the organisation's currency (numeric, 2 decimals); null limits mean unlimited.
 import { sql } from 'drizzle-orm'
-import { boolean, check, index, integer, numeric, pgEnum, pgTable, primaryKey, text, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { boolean, check, index, integer, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
+import { MONEY_NUMERIC } from '../../../shared/schemas/money'
 import { runs } from './runs'
 
-const money = (name: string) => numeric(name, { precision: 16, scale: 2, mode: 'number' })
+const money = (name: string) => numeric(name, { ...MONEY_NUMERIC.insurance, mode: 'number' })
 
 /** One terms set per organisation and portfolio (the portfolio may be one shared with the organisation). */
 export const policyTermsSets = pgTable('policy_terms_sets', {
@@ -19,9 +20,14 @@ export const policyTermsSets = pgTable('policy_terms_sets', {
   name: text('name').notNull(),
   description: text('description').notNull().default(''),
   createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  /** Archived: hidden from lists and pickers by default, kept for what used it (null: in use). */
+  archivedAt: timestamp('archived_at', { withTimezone: true }),
+  archivedBy: uuid('archived_by').references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
 }, t => [
   uniqueIndex('policy_terms_sets_org_portfolio_unique').on(t.organisationId, t.portfolioId),
+  index('policy_terms_sets_org_archived_idx').on(t.organisationId, t.archivedAt),
+  index('policy_terms_sets_archived_by_idx').on(t.archivedBy),
   index('policy_terms_sets_portfolio_idx').on(t.portfolioId),
 ])
 

@@ -7,6 +7,7 @@ import { sql } from 'drizzle-orm'
 import { boolean, check, customType, doublePrecision, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
+import { MONEY_NUMERIC } from '../../../shared/schemas/money'
 
 // Enum values are the engine's input contract (ComponentClass, TankMaterial, Contents, StructureKind).
 export const tankMaterial = pgEnum('tank_material', ['frp', 'polyethylene', 'steel', 'other'])
@@ -18,7 +19,7 @@ export const tankGrounding = pgEnum('tank_grounding', ['none', 'single', 'multip
 export const importStatus = pgEnum('inventory_import_status', ['previewed', 'committed', 'rejected'])
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
-const money = (name: string) => numeric(name, { precision: 14, scale: 2, mode: 'number' })
+const money = (name: string) => numeric(name, { ...MONEY_NUMERIC.inventory, mode: 'number' })
 
 export const portfolios = pgTable('portfolios', {
   id: uuid('id').primaryKey().defaultRandom(),

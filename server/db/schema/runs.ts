@@ -19,8 +19,15 @@ export const assumptionSets = pgTable('assumption_sets', {
   name: text('name').notNull(),
   description: text('description').notNull().default(''),
   createdBy: uuid('created_by').references(() => users.id, { onDelete: 'set null' }),
+  /** Archived: hidden from lists and pickers by default, kept for what used it (null: in use). */
+  archivedAt: timestamp('archived_at', { withTimezone: true }),
+  archivedBy: uuid('archived_by').references(() => users.id, { onDelete: 'set null' }),
   ...timestamps,
-}, t => [uniqueIndex('assumption_sets_org_name_unique').on(t.organisationId, t.name)])
+}, t => [
+  uniqueIndex('assumption_sets_org_name_unique').on(t.organisationId, t.name),
+  index('assumption_sets_org_archived_idx').on(t.organisationId, t.archivedAt),
+  index('assumption_sets_archived_by_idx').on(t.archivedBy),
+])
 
 /** One version of an assumption set: the full, validated engine parameters. Frozen once a run used it. */
 export const assumptionSetVersions = pgTable('assumption_set_versions', {

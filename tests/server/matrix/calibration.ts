@@ -10,6 +10,8 @@ const everyone: RoleName[] = ['admin', 'analyst', 'underwriter', 'asset_manager'
 export const rules: RouteRule[] = [
   { method: 'GET', file: 'server/api/calibrations/index.get.ts', path: '/api/calibrations', allowed: everyone },
   { method: 'GET', file: 'server/api/calibrations/[id].get.ts', path: '/api/calibrations/[id]', allowed: everyone, params: { id: 'calibrationId' } },
+  { method: 'POST', file: 'server/api/calibrations/[id]/archive.post.ts', path: '/api/calibrations/[id]/archive', allowed: editors, params: { id: 'calibrationId' } },
+  { method: 'DELETE', file: 'server/api/calibrations/[id].delete.ts', path: '/api/calibrations/[id]', allowed: editors, params: { id: 'calibrationId' } },
   { method: 'GET', file: 'server/api/calibrations/[id]/source.get.ts', path: '/api/calibrations/[id]/source', allowed: everyone, params: { id: 'calibrationId' } },
   { method: 'POST', file: 'server/api/calibrations/[id]/assumption-version.post.ts', path: '/api/calibrations/[id]/assumption-version', allowed: editors, params: { id: 'calibrationId' }, body: { assumptionVersionId: '00000000-0000-4000-8000-000000000000' } },
   { method: 'POST', file: 'server/api/calibrations/[id]/site-flash-densities.post.ts', path: '/api/calibrations/[id]/site-flash-densities', allowed: editors, params: { id: 'calibrationId' }, body: { siteIds: ['00000000-0000-4000-8000-000000000000'] } },

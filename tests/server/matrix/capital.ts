@@ -14,6 +14,8 @@ export const rules: RouteRule[] = [
   { method: 'GET', file: 'server/api/capital/options/index.get.ts', path: '/api/capital/options', allowed: [...everyone] },
   { method: 'POST', file: 'server/api/capital/options/index.post.ts', path: '/api/capital/options', allowed: [...planners] },
   { method: 'PATCH', file: 'server/api/capital/options/[id].patch.ts', path: '/api/capital/options/[id]', allowed: [...planners], params: { id: 'optionId' }, body: { fixedCost: 1000 } },
+  { method: 'POST', file: 'server/api/capital/options/[id]/archive.post.ts', path: '/api/capital/options/[id]/archive', allowed: [...planners], params: { id: 'optionId' } },
+  { method: 'DELETE', file: 'server/api/capital/options/[id].delete.ts', path: '/api/capital/options/[id]', allowed: [...planners], params: { id: 'optionId' } },
   { method: 'GET', file: 'server/api/capital/actions/index.get.ts', path: '/api/capital/actions', allowed: [...everyone] },
   { method: 'POST', file: 'server/api/capital/actions/index.post.ts', path: '/api/capital/actions', allowed: [...planners] },
   { method: 'DELETE', file: 'server/api/capital/actions/[id].delete.ts', path: '/api/capital/actions/[id]', allowed: [...planners], params: { id: 'actionId' } },

@@ -13,6 +13,8 @@ export const rules: RouteRule[] = [
   { method: 'GET', file: 'server/api/policy-terms/index.get.ts', path: '/api/policy-terms', allowed: [...everyone] },
   { method: 'POST', file: 'server/api/policy-terms/index.post.ts', path: '/api/policy-terms', allowed: [...underwriting] },
   { method: 'GET', file: 'server/api/policy-terms/[id].get.ts', path: '/api/policy-terms/[id]', allowed: [...everyone], params: { id: 'termsSetId' } },
+  { method: 'POST', file: 'server/api/policy-terms/[id]/archive.post.ts', path: '/api/policy-terms/[id]/archive', allowed: [...underwriting], params: { id: 'termsSetId' } },
+  { method: 'DELETE', file: 'server/api/policy-terms/[id].delete.ts', path: '/api/policy-terms/[id]', allowed: [...underwriting], params: { id: 'termsSetId' } },
   { method: 'GET', file: 'server/api/policy-terms-versions/[id].get.ts', path: '/api/policy-terms-versions/[id]', allowed: [...everyone], params: { id: 'termsVersionId' } },
   { method: 'PUT', file: 'server/api/policy-terms-versions/[id].put.ts', path: '/api/policy-terms-versions/[id]', allowed: [...underwriting], params: { id: 'termsVersionId' }, body: { note: '', sites: [] } },
   { method: 'GET', file: 'server/api/runs/[id]/financial.get.ts', path: '/api/runs/[id]/financial', allowed: [...everyone], params: { id: 'termsRunId' } },

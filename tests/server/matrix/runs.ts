@@ -11,6 +11,8 @@ export const rules: RouteRule[] = [
   { method: 'GET', file: 'server/api/assumption-sets/index.get.ts', path: '/api/assumption-sets', allowed: [...everyone] },
   { method: 'POST', file: 'server/api/assumption-sets/index.post.ts', path: '/api/assumption-sets', allowed: [...editors] },
   { method: 'GET', file: 'server/api/assumption-sets/[id].get.ts', path: '/api/assumption-sets/[id]', allowed: [...everyone], params: { id: 'assumptionSetId' } },
+  { method: 'POST', file: 'server/api/assumption-sets/[id]/archive.post.ts', path: '/api/assumption-sets/[id]/archive', allowed: [...editors], params: { id: 'assumptionSetId' } },
+  { method: 'DELETE', file: 'server/api/assumption-sets/[id].delete.ts', path: '/api/assumption-sets/[id]', allowed: [...editors], params: { id: 'assumptionSetId' } },
   { method: 'GET', file: 'server/api/assumption-versions/[id].get.ts', path: '/api/assumption-versions/[id]', allowed: [...everyone], params: { id: 'assumptionVersionId' } },
   { method: 'PATCH', file: 'server/api/assumption-versions/[id].patch.ts', path: '/api/assumption-versions/[id]', allowed: [...editors], params: { id: 'assumptionVersionId' }, body: { parameters: {} } },
   { method: 'GET', file: 'server/api/runs/index.get.ts', path: '/api/runs', allowed: [...everyone] },

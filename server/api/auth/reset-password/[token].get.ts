@@ -3,7 +3,7 @@
 import { tokenParamsSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
-  const { token } = await getValidatedRouterParams(event, tokenParamsSchema.parse)
+  const { token } = readValidParams(event, tokenParamsSchema)
   const row = await usableResetToken(token)
   return { ok: true, expiresAt: row.expiresAt.toISOString() }
 })

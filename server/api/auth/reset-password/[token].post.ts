@@ -3,8 +3,8 @@
 import { resetConfirmSchema, tokenParamsSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
-  const { token } = await getValidatedRouterParams(event, tokenParamsSchema.parse)
-  const body = await readValidatedBody(event, resetConfirmSchema.parse)
+  const { token } = readValidParams(event, tokenParamsSchema)
+  const body = await readValidBody(event, resetConfirmSchema)
   await confirmPasswordReset(event, token, body.password)
   await clearUserSession(event)
   return { ok: true }

@@ -3,7 +3,7 @@
 import { resetRequestSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
-  const body = await readValidatedBody(event, resetRequestSchema.parse)
+  const body = await readValidBody(event, resetRequestSchema)
   await requestPasswordReset(event, body.email)
   return { ok: true, message: 'If an account uses that address, a message with a reset link is on its way. The link works for one hour.' }
 })

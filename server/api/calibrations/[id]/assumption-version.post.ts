@@ -5,8 +5,8 @@ import { applyToAssumptions } from '~~/server/calibration/apply'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { id } = await getValidatedRouterParams(event, z.object({ id: z.uuid() }).parse)
-  const body = await readValidatedBody(event, applyToAssumptionsSchema.parse)
+  const { id } = readValidParams(event, z.object({ id: z.uuid() }))
+  const body = await readValidBody(event, applyToAssumptionsSchema)
   setResponseStatus(event, 201)
   return applyToAssumptions(member, event, id, body)
 })

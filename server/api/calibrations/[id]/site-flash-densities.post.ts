@@ -5,7 +5,7 @@ import { applyToSites } from '~~/server/calibration/apply'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { id } = await getValidatedRouterParams(event, z.object({ id: z.uuid() }).parse)
-  const body = await readValidatedBody(event, applyToSitesSchema.parse)
+  const { id } = readValidParams(event, z.object({ id: z.uuid() }))
+  const body = await readValidBody(event, applyToSitesSchema)
   return applyToSites(member, event, id, body.siteIds)
 })

@@ -5,7 +5,7 @@ import { storedFileStream } from '~~/server/calibration/lightning-files'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, z.object({ id: z.uuid() }).parse)
+  const { id } = readValidParams(event, z.object({ id: z.uuid() }))
   const file = await findSourceFile(member.organisationId, id)
   const safeName = file.fileName.replace(/[^\w.-]+/g, '_')
   setResponseHeaders(event, { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${safeName}"` })

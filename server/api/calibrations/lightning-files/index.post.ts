@@ -8,7 +8,7 @@ const querySchema = z.object({ name: z.string().trim().min(1, 'Give the file nam
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { name } = await getValidatedQuery(event, querySchema.parse)
+  const { name } = readValidQuery(event, querySchema)
   const declared = Number(getRequestHeader(event, 'content-length') ?? 0)
   if (declared > LIGHTNING_LIMITS.maxBytes) {
     throw createError({ statusCode: 413, statusMessage: `The file is larger than ${LIGHTNING_LIMITS.maxBytes / 1024 / 1024} MB, the most one upload may be. Split it by period or region.` })

@@ -6,7 +6,7 @@ import { capitalActions } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const { id } = await getValidatedRouterParams(event, idParams.parse)
+  const { id } = readValidParams(event, idParams)
   await useDb().transaction(async (tx) => {
     const [row] = await tx.delete(capitalActions).where(and(eq(capitalActions.id, id), eq(capitalActions.organisationId, member.organisationId))).returning()
     if (!row) notFound('Action')

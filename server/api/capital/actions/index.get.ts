@@ -5,7 +5,7 @@ import { rankedActions } from '~~/server/capital/plans'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { metric } = await getValidatedQuery(event, z.object({ metric: z.enum(['loss', 'ignition']).default('loss') }).parse)
+  const { metric } = readValidQuery(event, z.object({ metric: z.enum(['loss', 'ignition']).default('loss') }))
   const result = await rankedActions(useDb(), member.organisationId, metric)
   return { currency: member.currency, metric, ...result }
 })

@@ -5,7 +5,7 @@ import { ActionInputError, createActions } from '~~/server/capital/create-action
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const body = await readValidatedBody(event, createActionsSchema.parse)
+  const body = await readValidBody(event, createActionsSchema)
   try {
     const created = await useDb().transaction(async (tx) => {
       const rows = await createActions(tx, member.organisationId, member.user.id, body)

@@ -6,7 +6,7 @@ import { capitalEvaluations, capitalScenarioResults } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, idParams.parse)
+  const { id } = readValidParams(event, idParams)
   const db = useDb()
   const [evaluation] = await db.select().from(capitalEvaluations).where(and(eq(capitalEvaluations.id, id), eq(capitalEvaluations.organisationId, member.organisationId)))
   if (!evaluation) notFound('Evaluation')

@@ -5,7 +5,7 @@ import { EvaluationStartError, startEvaluation } from '~~/server/capital/evaluat
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const body = await readValidatedBody(event, startEvaluationSchema.parse)
+  const body = await readValidBody(event, startEvaluationSchema)
   try {
     const evaluation = await startEvaluation(body, { userId: member.user.id, organisationId: member.organisationId })
     setResponseStatus(event, 201)

@@ -7,8 +7,9 @@ import { costTanks, priceAction } from '~~/server/capital/create-actions'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const { id } = await getValidatedRouterParams(event, idParams.parse)
-  const body = await readValidatedBody(event, updateOptionSchema.parse)
+  const { id } = readValidParams(event, idParams)
+  const body = await readValidBody(event, updateOptionSchema)
+  if (Object.keys(body).length === 0) badRequest('Give what to change: the name, the fixed cost, the rate, the cost basis or the costing step.')
   return useDb().transaction(async (tx) => {
     const [before] = await tx.select().from(mitigationOptions).where(and(eq(mitigationOptions.id, id), eq(mitigationOptions.organisationId, member.organisationId))).for('update')
     if (!before) notFound('Option')

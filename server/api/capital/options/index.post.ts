@@ -5,7 +5,7 @@ import { mitigationOptions } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const body = await readValidatedBody(event, createOptionSchema.parse)
+  const body = await readValidBody(event, createOptionSchema)
   const option = await useDb().transaction(async (tx) => {
     const [row] = await tx.insert(mitigationOptions).values({ ...body, organisationId: member.organisationId }).onConflictDoNothing().returning()
     if (!row) conflict(`An option named "${body.name}" exists already.`)

@@ -6,7 +6,7 @@ import { capitalPlans } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const { id } = await getValidatedRouterParams(event, idParams.parse)
+  const { id } = readValidParams(event, idParams)
   await useDb().transaction(async (tx) => {
     const [row] = await tx.delete(capitalPlans).where(and(eq(capitalPlans.id, id), eq(capitalPlans.organisationId, member.organisationId))).returning()
     if (!row) notFound('Plan')

@@ -5,7 +5,7 @@ import { planDetail } from '~~/server/capital/plan-detail'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, idParams.parse)
+  const { id } = readValidParams(event, idParams)
   const detail = await planDetail(useDb(), member.organisationId, id)
   if (!detail) notFound('Plan')
   return { currency: member.currency, ...detail }

@@ -6,7 +6,7 @@ import { planForBudget } from '~~/server/capital/plans'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const body = await readValidatedBody(event, savePlanSchema.parse)
+  const body = await readValidBody(event, savePlanSchema)
   const db = useDb()
   const computed = await planForBudget(db, member.organisationId, body.budget, body.metric)
   if (!computed.evaluation) badRequest('No evaluation has measured the actions yet. Ask an analyst to evaluate them first.')

@@ -12,7 +12,9 @@ export default defineEventHandler(async (event) => {
   const file = parts?.find(p => p.name === 'file' && p.filename !== undefined)
   if (!file) badRequest('Choose a file to upload (an .xlsx workbook or a .csv file).')
   if (file.data.length > MAX_IMPORT_BYTES) throw createError({ statusCode: 413, statusMessage: TOO_BIG })
-  const preview = await previewUpload(event, member, { fileName: file.filename || 'upload', contentType: file.type ?? 'application/octet-stream', data: file.data })
+  // Names and types come from the client: no NUL (PostgreSQL text cannot hold it), bounded length.
+  const clean = (text: string | undefined, fallback: string) => (text ?? '').replaceAll('\u0000', '').slice(0, 255) || fallback
+  const preview = await previewUpload(event, member, { fileName: clean(file.filename, 'upload'), contentType: clean(file.type, 'application/octet-stream'), data: file.data })
   setResponseStatus(event, 201)
   return preview
 })

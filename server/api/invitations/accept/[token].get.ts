@@ -4,6 +4,6 @@
 import { tokenParamsSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
-  const { token } = await getValidatedRouterParams(event, tokenParamsSchema.parse)
+  const { token } = readValidParams(event, tokenParamsSchema)
   return await describeInvitation(event, token)
 })

@@ -5,7 +5,7 @@
 import { acceptInvitationSchema, tokenParamsSchema } from '~~/shared/schemas/auth'
 
 export default defineEventHandler(async (event) => {
-  const { token } = await getValidatedRouterParams(event, tokenParamsSchema.parse)
-  const body = await readValidatedBody(event, acceptInvitationSchema.parse)
+  const { token } = readValidParams(event, tokenParamsSchema)
+  const body = await readValidBody(event, acceptInvitationSchema)
   return await acceptInvitation(event, token, body)
 })

@@ -5,7 +5,7 @@ import { getRun } from '~~/server/runs/queries'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
+  const { id } = readValidParams(event, runIdParams)
   const run = await getRun(member.organisationId, id)
   if (!run) notFound('Run')
   const cancelled = await endRunUnsuccessfully(id, 'cancelled', `Cancelled by ${member.user.name}`)

@@ -8,7 +8,7 @@ const DRIVERS = 10
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
+  const { id } = readValidParams(event, runIdParams)
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
   return cachedResult(`dashboard:${run.id}:${member.currency}`, async () => {

@@ -10,7 +10,7 @@ import { settings } from '~~/server/settings'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
+  const { id } = readValidParams(event, runIdParams)
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
   const db = useDb()

@@ -7,8 +7,8 @@ import { writeFinancialWorkbook } from '~~/server/insurance/workbook'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
-  const query = await getValidatedQuery(event, financialQuerySchema.parse)
+  const { id } = readValidParams(event, runIdParams)
+  const query = readValidQuery(event, financialQuerySchema)
   let view
   try {
     view = financialView(await loadFinancialInputs(member.organisationId, id, query.termsVersionId), { ...query, whatIfOccurrenceDeductible: undefined, whatIfAggregateDeductible: undefined })

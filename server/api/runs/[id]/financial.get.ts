@@ -8,8 +8,8 @@ import { FinancialViewError, financialView, loadFinancialInputs } from '~~/serve
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
-  const query = await getValidatedQuery(event, financialQuerySchema.parse)
+  const { id } = readValidParams(event, runIdParams)
+  const query = readValidQuery(event, financialQuerySchema)
   try {
     const inputs = await loadFinancialInputs(member.organisationId, id, query.termsVersionId)
     return { currency: member.currency, ...financialView(inputs, query) }

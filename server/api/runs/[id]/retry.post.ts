@@ -6,7 +6,7 @@ import { RunStartError, startRun } from '~~/server/runs/start'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
+  const { id } = readValidParams(event, runIdParams)
   const run = await getRun(member.organisationId, id)
   if (!run) notFound('Run')
   try {

@@ -6,7 +6,7 @@ import { writePlanWorkbook } from '~~/server/capital/workbook'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { id } = await getValidatedRouterParams(event, idParams.parse)
+  const { id } = readValidParams(event, idParams)
   const detail = await planDetail(useDb(), member.organisationId, id)
   if (!detail) notFound('Plan')
   const body = await writePlanWorkbook(detail, member.currency)

@@ -8,7 +8,7 @@ const params = z.object({ id: z.uuid('Unknown run.'), siteId: z.uuid('Unknown si
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id, siteId } = await getValidatedRouterParams(event, params.parse)
+  const { id, siteId } = readValidParams(event, params)
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
   const detail = await siteDetail(run.id, siteId)

@@ -6,7 +6,7 @@ import { cachedResult } from '~~/server/results/cache'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = await getValidatedRouterParams(event, runIdParams.parse)
+  const { id } = readValidParams(event, runIdParams)
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
   return cachedResult(`sites:${run.id}:${member.currency}`, async () => {
