@@ -179,9 +179,19 @@ export function simulateSiteFrequency(site: SiteInput, assumptions: AssumptionSe
   const radiusM = siteRadius(ps)
   const estimated = site.tanks.map((tank, t) => estimateTank(ps, t, createStream(options.runSeed, site.id, `frequency/${tank.id}`), options))
   const losses = frequencyLosses(estimated.map((r) => r.ignition), ps.expectedLoss, estimateSpreadLosses(ps, options.runSeed))
-  const tanks = estimated.map((r, t) => ({
-    ...r, expectedAnnualLoss: losses.tanks[t]!.total, expectedAnnualLossPd: losses.tanks[t]!.propertyDamage, expectedAnnualLossBi: losses.tanks[t]!.businessInterruption,
-  }))
+  const tanks = estimated.map((r, t) => {
+    // A loss built on an ignition figure stopped by the negligible-rate rule is an upper bound too:
+    // its own fires are bounded through the ignition bound, spread from neighbours is added as estimated.
+    const bounded = (e: Estimate, key: 'total' | 'propertyDamage' | 'businessInterruption'): Estimate => r.ignition.upperBoundOnly
+      ? { ...e, lo: 0, hi: Math.max(e.hi, e.rate + (r.ignition.hi - r.ignition.rate) * ps.expectedLoss[t]![key]), upperBoundOnly: true }
+      : e
+    return {
+      ...r,
+      expectedAnnualLoss: bounded(losses.tanks[t]!.total, 'total'),
+      expectedAnnualLossPd: bounded(losses.tanks[t]!.propertyDamage, 'propertyDamage'),
+      expectedAnnualLossBi: bounded(losses.tanks[t]!.businessInterruption, 'businessInterruption'),
+    }
+  })
   return {
     siteId: site.id, mode: 'frequency', attachmentModel: ps.attachmentModel, radiusM,
     lambdaPerYear: flashesPerYearOnDisc(ps.flashDensity, radiusM),
