@@ -95,7 +95,3 @@ export const TANK_UNIQUE = {
 export const STRUCTURE_UNIQUE = { site_structures_site_external_id_unique: 'Another structure on this site already has this reference.' }
 export const PORTFOLIO_UNIQUE = { portfolios_org_name_unique: 'Your organisation already has a portfolio with this name.' }
 
-/** Reads the body and validates it with a shared zod schema (server/utils/validation.ts). */
-export async function readInventoryBody<T extends z.ZodType>(event: H3Event, schema: T): Promise<z.output<T>> {
-  return readValidBody(event, schema)
-}

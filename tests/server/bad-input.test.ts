@@ -95,7 +95,7 @@ const modules = Object.entries(import.meta.glob<MatrixModule>(['./matrix/*.ts', 
   .map(([file, mod]) => ({ file, rules: mod.rules, fixtures: mod.fixtures }))
 
 /** The route reads a body or a query (our readers, h3's, or the raw request stream). */
-const READS_INPUT = /readValidBody|readValidQuery|readInventoryBody|readMultipartFormData|readJsonBody|readRawBody|readBody|getQuery|event\.node\.req/
+const READS_INPUT = /readValidBody|readValidQuery|readMultipartFormData|readJsonBody|readRawBody|readBody|getQuery|event\.node\.req/
 // Sign-out and organisation switching end or move this client's session; they read no input worth probing.
 const SKIPPED = new Set(['server/api/auth/sign-out.post.ts', 'server/api/auth/switch-organisation.post.ts'])
 

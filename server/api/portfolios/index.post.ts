@@ -5,7 +5,7 @@ import { portfolioSchema } from '~~/shared/schemas/inventory'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const body = await readInventoryBody(event, portfolioSchema)
+  const body = await readValidBody(event, portfolioSchema)
   const created = await useDb().transaction(async (tx) => {
     const [row] = await tx.insert(portfolios).values({ ...body, organisationId: member.organisationId }).returning()
     await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'create', entity: 'portfolio', entityId: row!.id, after: row }, { tx, event })

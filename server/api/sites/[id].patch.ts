@@ -7,7 +7,7 @@ import { siteSchema } from '~~/shared/schemas/inventory'
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
   const before = await findEditableSite(member, routeUuid(event, 'Site'))
-  const body = await readInventoryBody(event, siteSchema)
+  const body = await readValidBody(event, siteSchema)
   return useDb().transaction(async (tx) => {
     const [after] = await tx.update(sites).set(body).where(eq(sites.id, before.id)).returning()
     await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'update', entity: 'site', entityId: before.id, before, after }, { tx, event })

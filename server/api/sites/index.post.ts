@@ -9,8 +9,8 @@ const extra = z.object({ portfolioIds: z.array(z.uuid()).max(100).default([]) })
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const body = await readInventoryBody(event, siteSchema)
-  const { portfolioIds } = await readInventoryBody(event, extra)
+  const body = await readValidBody(event, siteSchema)
+  const { portfolioIds } = await readValidBody(event, extra)
   const db = useDb()
   const own = portfolioIds.length === 0 ? [] : await db.select({ id: portfolios.id }).from(portfolios).where(and(inArray(portfolios.id, portfolioIds), eq(portfolios.organisationId, member.organisationId)))
   if (own.length !== new Set(portfolioIds).size) notFound('Portfolio')

@@ -7,7 +7,7 @@ import { structureSchema } from '~~/shared/schemas/inventory'
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
   const { structure: before } = await findEditableStructure(member, routeUuid(event, 'Structure'))
-  const body = await readInventoryBody(event, structureSchema)
+  const body = await readValidBody(event, structureSchema)
   return useDb().transaction(async (tx) => {
     const [after] = await tx.update(siteStructures).set(body).where(eq(siteStructures.id, before.id)).returning()
     await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'update', entity: 'structure', entityId: before.id, before, after }, { tx, event })

@@ -7,7 +7,7 @@ import { portfolioSitesSchema } from '~~/shared/schemas/inventory'
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
   const portfolio = await findEditablePortfolio(member, routeUuid(event, 'Portfolio'))
-  const body = await readInventoryBody(event, portfolioSitesSchema)
+  const body = await readValidBody(event, portfolioSitesSchema)
   const db = useDb()
   // A portfolio holds only its own organisation's sites.
   const own = body.add.length === 0 ? [] : await db.select({ id: sites.id }).from(sites).where(and(inArray(sites.id, body.add), eq(sites.organisationId, member.organisationId)))

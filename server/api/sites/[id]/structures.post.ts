@@ -6,7 +6,7 @@ import { structureSchema } from '~~/shared/schemas/inventory'
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
   const site = await findEditableSite(member, routeUuid(event, 'Site'))
-  const body = await readInventoryBody(event, structureSchema)
+  const body = await readValidBody(event, structureSchema)
   const created = await useDb().transaction(async (tx) => {
     const [row] = await tx.insert(siteStructures).values({ ...body, siteId: site.id }).returning()
     await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'create', entity: 'structure', entityId: row!.id, after: row }, { tx, event })

@@ -6,7 +6,7 @@ import { tankSchema } from '~~/shared/schemas/inventory'
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
   const site = await findEditableSite(member, routeUuid(event, 'Site'))
-  const { components, ...tank } = await readInventoryBody(event, tankSchema)
+  const { components, ...tank } = await readValidBody(event, tankSchema)
   const created = await useDb().transaction(async (tx) => {
     const [row] = await tx.insert(tanks).values({ ...tank, siteId: site.id }).returning()
     if (components.length > 0) await tx.insert(tankComponents).values(components.map(c => ({ ...c, tankId: row!.id })))
