@@ -5,7 +5,7 @@ import type { ComponentClass, Estimate, SiteInput } from './types'
 import type { AssumptionSet } from './assumptions'
 import type { PreparedSite } from './kernel'
 import type { UniformStream } from './random'
-import { attachFlash, canSpark, classSparkProbabilityLn, componentClassOf, prepareSite, strikeRadius, tankSparkGivenAttachment } from './kernel'
+import { attachFlash, canSpark, classSparkProbabilityLn, componentClassOf, strikeRadius, tankSparkGivenAttachment } from './kernel'
 import { directStrikeQuadrature, isolatedDirectRadius } from './direct-quadrature'
 import type { DirectQuadratureResult } from './direct-quadrature'
 import { siteRadius, tankRelevantRadius } from './reach'
@@ -14,6 +14,8 @@ import { normalEstimate, scaleEstimate, sumEstimates } from './statistics'
 import { flashesPerYearOnDisc } from './flash-density'
 import { frequencyLosses } from './loss'
 import { estimateSpreadLosses } from './spread-frequency'
+import type { SitePreparation } from './prepared'
+import { prepareSiteOnce } from './prepared'
 
 export interface FrequencyOptions {
   runSeed: number | string
@@ -173,12 +175,15 @@ interface TankSampler {
   classFirst: number
 }
 
-/** Frequency-mode estimate of every tank of one site. Deterministic in (site, assumptions, runSeed). */
-export function simulateSiteFrequency(site: SiteInput, assumptions: AssumptionSet, options: FrequencyOptions): SiteFrequencyResult {
-  const ps = prepareSite(site, assumptions)
+/**
+ * Frequency-mode estimate of every tank of one site. Deterministic in (site, assumptions, runSeed).
+ * `prepared`: the site already compiled for this task (prepared.ts), shared with its other figures.
+ */
+export function simulateSiteFrequency(site: SiteInput, assumptions: AssumptionSet, options: FrequencyOptions, prepared: SitePreparation = prepareSiteOnce(site, assumptions)): SiteFrequencyResult {
+  const ps = prepared.ps
   const radiusM = siteRadius(ps)
   const estimated = site.tanks.map((tank, t) => estimateTank(ps, t, createStream(options.runSeed, site.id, `frequency/${tank.id}`), options))
-  const losses = frequencyLosses(estimated.map((r) => r.ignition), ps.expectedLoss, estimateSpreadLosses(ps, options.runSeed))
+  const losses = frequencyLosses(estimated.map((r) => r.ignition), ps.expectedLoss, estimateSpreadLosses(ps, options.runSeed, undefined, prepared))
   const tanks = estimated.map((r, t) => {
     // A loss built on an ignition figure stopped by the negligible-rate rule is an upper bound too:
     // its own fires are bounded through the ignition bound, spread from neighbours is added as estimated.

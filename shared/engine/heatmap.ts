@@ -5,7 +5,9 @@ import type { AssumptionSet } from './assumptions'
 import type { Candidate } from './envelope'
 import type { PreparedSite } from './kernel'
 import { attachFlash, canSpark, prepareSite, strikeRadius, tankSparkGivenAttachment } from './kernel'
-import { buildEnvelope, cellBoundOf, drawCandidate } from './envelope'
+import { cellBoundOf, drawCandidate } from './envelope'
+import type { SitePreparation } from './prepared'
+import { prepareSiteOnce } from './prepared'
 import { createStream } from './random'
 import { siteRadius, siteRelevantRadius } from './reach'
 
@@ -103,9 +105,9 @@ export interface SiteEventBands {
  * band, from candidate flashes of the thinning envelope weighted by their conditional event
  * probabilities (no coin flips), so the shares are smooth with a modest sample.
  */
-export function siteEventBands(site: SiteInput, assumptions: AssumptionSet, options: SiteEventBandOptions): SiteEventBands {
-  const ps = prepareSite(site, assumptions)
-  const env = buildEnvelope(ps)
+export function siteEventBands(site: SiteInput, assumptions: AssumptionSet, options: SiteEventBandOptions, prepared: SitePreparation = prepareSiteOnce(site, assumptions)): SiteEventBands {
+  const ps = prepared.ps
+  const env = prepared.envelope()
   const rand = createStream(options.runSeed, site.id, 'event-bands')
   const currentEdges = options.currentBandsKa ?? defaultCurrentBands(assumptions)
   const distanceEdges = options.distanceBandsM ?? [0, 25, 50, 100, 200, 500, 1000, 2000].filter((d) => d < siteRadius(ps)).concat([siteRadius(ps)])

@@ -8,7 +8,9 @@
 import type { PreparedSite } from './kernel'
 import type { Candidate } from './envelope'
 import { attachFlash, siteEventProbabilities, strikeRadius } from './kernel'
-import { buildEnvelope, cellBoundOf, drawCandidate } from './envelope'
+import { cellBoundOf, drawCandidate } from './envelope'
+import type { SitePreparation } from './prepared'
+import { preparationOf } from './prepared'
 import { createStream } from './random'
 
 /** Per tank: mean annual spread loss (PD, BI) and the variances of those means. */
@@ -22,14 +24,15 @@ export interface SpreadLossEstimate {
 /** Candidate flashes drawn for the spread estimate of one site. */
 export const SPREAD_SAMPLES = 40_000
 
-export function estimateSpreadLosses(ps: PreparedSite, runSeed: number | string, samples = SPREAD_SAMPLES): SpreadLossEstimate {
+/** `prepared`: the task's compiled site of `ps`, whose envelope is then built once for every figure. */
+export function estimateSpreadLosses(ps: PreparedSite, runSeed: number | string, samples = SPREAD_SAMPLES, prepared: SitePreparation = preparationOf(ps)): SpreadLossEstimate {
   const n = ps.nTanks
   const out: SpreadLossEstimate = {
     propertyDamage: new Float64Array(n), businessInterruption: new Float64Array(n),
     varPropertyDamage: new Float64Array(n), varBusinessInterruption: new Float64Array(n),
   }
   if (ps.spread.spreadTank.length === 0 || n < 2) return out
-  const env = buildEnvelope(ps)
+  const env = prepared.envelope()
   if (!(env.totalRate > 0)) return out
   const rand = createStream(runSeed, ps.siteId, 'frequency/spread')
   const flash: Candidate = { x: 0, y: 0, currentKa: 0, lnI: 0, cell: 0 }

@@ -8,8 +8,10 @@ import type { PreparedSite } from './kernel'
 import type { Candidate, Envelope } from './envelope'
 import type { UniformStream } from './random'
 import type { YearLossSummary } from './exceedance'
-import { attachFlash, prepareSite, siteEventProbabilities, strikeRadius } from './kernel'
-import { buildEnvelope, cellBoundOf, drawCandidate } from './envelope'
+import { attachFlash, siteEventProbabilities, strikeRadius } from './kernel'
+import { cellBoundOf, drawCandidate } from './envelope'
+import type { SitePreparation } from './prepared'
+import { prepareSiteOnce } from './prepared'
 import { createStream, poissonDraw } from './random'
 import { burningTankLoss } from './loss'
 import { countEstimate } from './statistics'
@@ -92,10 +94,10 @@ interface Tally {
 }
 
 /** Simulate `years` years for one site. Deterministic in (site, assumptions, runSeed, years). */
-export function simulateSiteYears(site: SiteInput, assumptions: AssumptionSet, options: YearOptions): SiteYearResult {
+export function simulateSiteYears(site: SiteInput, assumptions: AssumptionSet, options: YearOptions, prepared: SitePreparation = prepareSiteOnce(site, assumptions)): SiteYearResult {
   if (!Number.isInteger(options.years) || options.years < 1) throw new RangeError(`years must be a whole number ≥ 1, got ${options.years}`)
-  const ps = prepareSite(site, assumptions)
-  const env = buildEnvelope(ps)
+  const ps = prepared.ps
+  const env = prepared.envelope()
   const rand = createStream(options.runSeed, site.id, 'years')
   // Spread draws come from a stream of their own, so switching spread off leaves every other draw unchanged.
   const spreadRand = createStream(options.runSeed, site.id, 'years/spread')
