@@ -7,13 +7,9 @@
 import { hostname } from 'node:os'
 import type PgBoss from 'pg-boss'
 import { usePool } from '../db'
-import { failEvaluation } from '../capital/evaluations'
-import { endRunUnsuccessfully, notifyRunEnded } from '../runs/ending'
 import { settings } from '../settings'
-import type { JobName, JobPayloads } from './types'
-
-/** Queues whose jobs beat while worked (long computations); mail is short and expires on its own. */
-export const BEATING_QUEUES = ['run.chunk', 'scenario.site'] as const satisfies JobName[]
+import { beatingQueues, type JobRegistry } from './registry'
+import type { JobName } from './types'
 
 const workerName = `${hostname()}:${process.pid}`
 
@@ -41,8 +37,11 @@ export function withHeartbeat<J extends { id: string }>(queue: string, handler: 
 
 interface StaleJob { id: string, name: string, retry_count: number, retry_limit: number, data: unknown, worker: string | null }
 
-/** Fails (for retry) every active beating job whose last beat is older than the stale time. Returns how many. */
-export async function reclaimStaleJobs(boss: PgBoss): Promise<number> {
+/**
+ * Fails (for retry) every active job of the registry's beating queues (long computations; mail is
+ * short and expires on its own) whose last beat is older than the stale time. Returns how many.
+ */
+export async function reclaimStaleJobs(boss: PgBoss, registry: JobRegistry): Promise<number> {
   const client = await usePool().connect()
   let stale: StaleJob[] = []
   try {
@@ -53,7 +52,7 @@ export async function reclaimStaleJobs(boss: PgBoss): Promise<number> {
        LEFT JOIN job_heartbeats h ON h.job_id = j.id
        WHERE j.name = ANY($1::text[]) AND j.state = 'active'
          AND coalesce(h.beat_at, j.started_on) < now() - make_interval(secs => $2)
-       FOR UPDATE OF j SKIP LOCKED`, [BEATING_QUEUES, settings.staleAfterSeconds])
+       FOR UPDATE OF j SKIP LOCKED`, [beatingQueues(registry), settings.staleAfterSeconds])
     stale = rows
     const db = { executeSql: (text: string, values: unknown[]) => client.query(text, values) }
     for (const job of stale) {
@@ -72,24 +71,19 @@ export async function reclaimStaleJobs(boss: PgBoss): Promise<number> {
     if (job.retry_count < job.retry_limit) continue
     // No attempt is left: nobody else will end the work, so end it here, as the handler would have.
     const attempts = job.retry_count + 1
-    if (job.name === 'run.chunk') {
-      const data = job.data as JobPayloads['run.chunk']
-      if (await endRunUnsuccessfully(data.runId, 'failed', `Chunk ${data.chunkIndex + 1} failed after ${attempts} attempts — its worker stopped answering.`)) await notifyRunEnded(data.runId)
-    } else if (job.name === 'scenario.site') {
-      const data = job.data as JobPayloads['scenario.site']
-      await failEvaluation(data.evaluationId, `Site ${data.siteId} failed after ${attempts} attempts — its worker stopped answering.`)
-    }
+    const entry = registry[job.name as JobName] as { onAbandoned?: (data: unknown, message: string) => Promise<void> } | undefined
+    await entry?.onAbandoned?.(job.data, `failed after ${attempts} attempts — its worker stopped answering.`)
   }
   return stale.length
 }
 
 /** Reaps every few seconds until stopped. */
-export function startReaper(boss: PgBoss): () => void {
+export function startReaper(boss: PgBoss, registry: JobRegistry): () => void {
   let running = false
   const timer = setInterval(() => {
     if (running) return
     running = true
-    reclaimStaleJobs(boss).catch(error => console.error('[heartbeat] reclaim:', (error as Error).message)).finally(() => { running = false })
+    reclaimStaleJobs(boss, registry).catch(error => console.error('[heartbeat] reclaim:', (error as Error).message)).finally(() => { running = false })
   }, Math.max(1000, settings.heartbeatSeconds * 1000))
   return () => clearInterval(timer)
 }

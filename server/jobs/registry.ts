@@ -1,21 +1,26 @@
-// The explicit registry: which handler works which queue, with what polling.
+// The shape of the job registry: which handler works which queue, with what polling, how many at
+// once, whether its jobs beat while worked, and what ends the work when a job's worker died on its
+// last attempt. Plumbing only: the entries live beside their handlers (handlers/index.ts), and the
+// worker entry (worker.ts) hands them to the bootstrap, so nothing here imports a domain.
 import type PgBoss from 'pg-boss'
-import { handleMailSend } from './mail-send'
-import { handlePasswordReset } from './password-reset'
-import { handleRunChunk } from './run-chunk'
-import { handleScenarioSite } from './scenario-site'
-import { threadCount } from '../runs/thread-pool'
 import type { JobName, JobPayloads } from './types'
 
 type Handler<T> = ((jobs: PgBoss.Job<T>[]) => Promise<unknown>) | ((jobs: PgBoss.JobWithMetadata<T>[]) => Promise<unknown>)
-/** `concurrency`: how many of this queue's jobs one worker process works at once. */
-type Registry = { [K in JobName]: { handler: Handler<JobPayloads[K]>, work: PgBoss.WorkOptions, concurrency: () => number } }
 
-export const jobRegistry: Registry = {
-  'mail.send': { handler: handleMailSend, work: { pollingIntervalSeconds: 1, batchSize: 5 }, concurrency: () => 1 },
-  'auth.password-reset': { handler: handlePasswordReset, work: { pollingIntervalSeconds: 1, batchSize: 5 }, concurrency: () => 1 },
-  // One chunk per core at a time; the chunk's sites spread over the thread pool.
-  'run.chunk': { handler: handleRunChunk, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount },
-  // One site per core at a time (capital planning's scenario evaluations).
-  'scenario.site': { handler: handleScenarioSite, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount },
+export interface JobEntry<T> {
+  handler: Handler<T>
+  work: PgBoss.WorkOptions
+  /** How many of this queue's jobs one worker process works at once. */
+  concurrency: () => number
+  /** Long jobs beat while worked (heartbeat.ts), so a dead worker's jobs are handed on in seconds. */
+  beats?: boolean
+  /** A beating job whose worker died on its last attempt: end the work it belonged to, as the handler would have. */
+  onAbandoned?: (data: T, message: string) => Promise<void>
+}
+
+export type JobRegistry = { [K in JobName]: JobEntry<JobPayloads[K]> }
+
+/** Names of the queues whose jobs beat while worked. */
+export function beatingQueues(registry: JobRegistry): JobName[] {
+  return (Object.keys(registry) as JobName[]).filter(name => registry[name].beats === true)
 }

@@ -10,6 +10,8 @@ import type { YearLossSummary } from '../../shared/engine/exceedance'
 import type { PackedEvents, PackedSplit } from './events-codec'
 import { siteEventBands, type SiteEventBands } from '../../shared/engine/heatmap'
 import { prepareSiteOnce, type SitePreparation } from '../../shared/engine/prepared'
+import { threadId } from 'node:worker_threads'
+import { epochMs, type SiteThreadTiming } from './timing'
 
 export type RunMode = 'frequency' | 'year'
 
@@ -67,7 +69,7 @@ export interface SiteComputation {
   timing: SiteTiming
 }
 
-export interface SiteTiming { prepareMs: number, figuresMs: number, eventBandsMs: number }
+export interface SiteTiming extends SiteThreadTiming { prepareMs: number, figuresMs: number, eventBandsMs: number }
 
 
 /** A simulated count as a rate with the Garwood interval and the Poisson standard error √n / Y. */
@@ -81,6 +83,7 @@ const fromMean = (m: { mean: number, se: number }): Figure => normalEstimate(m.m
 const EVENT_BAND_SAMPLES = 40_000
 
 export function computeSite(task: SiteTask): SiteComputation {
+  const startedAt = epochMs()
   const t0 = performance.now()
   // The snapshot is validated again here: a site that the engine cannot take fails with the reason.
   const checked = { ...task, site: parseSite(task.site) }
@@ -91,7 +94,7 @@ export function computeSite(task: SiteTask): SiteComputation {
   const t2 = performance.now()
   const eventBands = siteEventBands(checked.site, checked.assumptions, { runSeed: checked.runSeed, samples: EVENT_BAND_SAMPLES }, prepared)
   const t3 = performance.now()
-  return { ...figures, eventBands, timing: { prepareMs: t1 - t0, figuresMs: t2 - t1, eventBandsMs: t3 - t2 } }
+  return { ...figures, eventBands, timing: { threadId, startedAt, endedAt: epochMs(), prepareMs: t1 - t0, figuresMs: t2 - t1, eventBandsMs: t3 - t2 } }
 }
 
 type SiteFigures = Omit<SiteComputation, 'eventBands' | 'timing'>

@@ -1,15 +1,24 @@
 // When every chunk is in: portfolio roll-ups (and year-mode exceedance), then the run succeeds.
-import { asc, eq } from 'drizzle-orm'
+import { and, asc, eq, inArray } from 'drizzle-orm'
 import { sortDescending, STANDARD_RETURN_PERIODS, summariseYearLosses } from '../../shared/engine/exceedance'
 import { returnPeriodLossInterval } from './quantile-interval'
-import { useDb } from '../db'
+import { useDb, type Database } from '../db'
 import { runPortfolioResults, runs, runSiteResults } from '../db/schema'
 import type { Figure } from './compute'
 import { decodeEvents } from './events-codec'
 import { sumCounts } from './figures'
 import { normalEstimate, sumEstimates } from '../../shared/engine/statistics'
 
-type SiteRow = typeof runSiteResults.$inferSelect
+const figureColumns = {
+  siteId: runSiteResults.siteId,
+  directRate: runSiteResults.directRate, directSe: runSiteResults.directSe, directLo: runSiteResults.directLo, directHi: runSiteResults.directHi, directCount: runSiteResults.directCount,
+  sparkingRate: runSiteResults.sparkingRate, sparkingSe: runSiteResults.sparkingSe, sparkingLo: runSiteResults.sparkingLo, sparkingHi: runSiteResults.sparkingHi, sparkingCount: runSiteResults.sparkingCount,
+  ignitionRate: runSiteResults.ignitionRate, ignitionSe: runSiteResults.ignitionSe, ignitionLo: runSiteResults.ignitionLo, ignitionHi: runSiteResults.ignitionHi, ignitionCount: runSiteResults.ignitionCount,
+  expectedAnnualLoss: runSiteResults.expectedAnnualLoss, expectedAnnualLossSe: runSiteResults.expectedAnnualLossSe,
+  expectedAnnualLossLo: runSiteResults.expectedAnnualLossLo, expectedAnnualLossHi: runSiteResults.expectedAnnualLossHi,
+  expectedAnnualLossPd: runSiteResults.expectedAnnualLossPd, expectedAnnualLossBi: runSiteResults.expectedAnnualLossBi,
+}
+type SiteRow = { [K in keyof typeof figureColumns]: (typeof runSiteResults.$inferSelect)[K] }
 
 const figure = (r: SiteRow, p: 'direct' | 'sparking' | 'ignition'): Figure =>
   ({ rate: r[`${p}Rate`], se: r[`${p}Se`], lo: r[`${p}Lo`], hi: r[`${p}Hi`], count: r[`${p}Count`] ?? undefined })
@@ -23,23 +32,32 @@ function addEvent(t: Table, y: number, loss: number) {
   if (loss > t.yearMaxEventLoss[y]!) t.yearMaxEventLoss[y] = loss
 }
 
+/** Sites whose event blobs are read at once while the portfolio's tables are built (bounded memory). */
+const EVENT_PAGE = 200
+
 /**
  * Year mode: the portfolio's year-loss tables (total, property damage, business interruption),
- * built from every site's events in site-id order.
+ * built from every site's events in site-id order — read a page of sites at a time, so a run of
+ * thousands of sites never holds every site's events at once (the order, and so every sum, is the same).
  */
-function portfolioYearTables(rows: SiteRow[], years: number) {
+async function portfolioYearTables(tx: Database, runId: string, siteIds: string[], years: number) {
   const total = emptyTable(years)
   const pd = emptyTable(years)
   const bi = emptyTable(years)
-  for (const row of rows) {
-    if (!row.events) continue
-    const e = decodeEvents(row.events)
-    for (let k = 0; k < e.year.length; k++) {
-      const y = e.year[k]!
-      addEvent(total, y, e.loss[k]!)
-      const p = e.split ? e.split.propertyDamage[k]! : 0
-      addEvent(pd, y, p)
-      addEvent(bi, y, e.loss[k]! - p)
+  for (let i = 0; i < siteIds.length; i += EVENT_PAGE) {
+    const page = await tx.select({ events: runSiteResults.events }).from(runSiteResults)
+      .where(and(eq(runSiteResults.runId, runId), inArray(runSiteResults.siteId, siteIds.slice(i, i + EVENT_PAGE))))
+      .orderBy(asc(runSiteResults.siteId))
+    for (const row of page) {
+      if (!row.events) continue
+      const e = decodeEvents(row.events)
+      for (let k = 0; k < e.year.length; k++) {
+        const y = e.year[k]!
+        addEvent(total, y, e.loss[k]!)
+        const p = e.split ? e.split.propertyDamage[k]! : 0
+        addEvent(pd, y, p)
+        addEvent(bi, y, e.loss[k]! - p)
+      }
     }
   }
   return { total, pd, bi }
@@ -59,7 +77,8 @@ export async function finaliseRun(runId: string): Promise<boolean> {
     const [run] = await tx.select().from(runs).where(eq(runs.id, runId)).for('update')
     if (!run || run.state !== 'running' || run.chunksDone !== run.chunksTotal) return false
     // Fixed order (by site id) so that sums are bit-identical however the chunks were worked.
-    const rows = await tx.select().from(runSiteResults).where(eq(runSiteResults.runId, runId)).orderBy(asc(runSiteResults.siteId))
+    // The figures only: the per-site blobs (events, event bands, year summaries) are not read here.
+    const rows = await tx.select(figureColumns).from(runSiteResults).where(eq(runSiteResults.runId, runId)).orderBy(asc(runSiteResults.siteId))
     let values: { pd: number, bi: number, direct: Figure, sparking: Figure, ignition: Figure, eal: Figure, yearSummary: object | null }
     const splitSum = (key: 'expectedAnnualLossPd' | 'expectedAnnualLossBi') => rows.reduce((s, r) => s + (r[key] ?? 0), 0)
     const pd = splitSum('expectedAnnualLossPd')
@@ -75,7 +94,7 @@ export async function finaliseRun(runId: string): Promise<boolean> {
         yearSummary: null,
       }
     } else {
-      const tables = portfolioYearTables(rows, run.years)
+      const tables = await portfolioYearTables(tx, runId, rows.map(r => r.siteId), run.years)
       const table = tables.total
       const summary = {
         ...withIntervals(summariseYearLosses(table.yearLosses, table.yearMaxEventLoss), table),

@@ -2,12 +2,12 @@
 // facts people read (names, coordinates, insured values), and a hash of everything that decides
 // the results.
 import { createHash } from 'node:crypto'
-import { and, asc, eq, inArray, or } from 'drizzle-orm'
+import { asc, eq, inArray } from 'drizzle-orm'
 import type { AssumptionSet } from '../../shared/engine/assumptions'
 import { flashDensityFromThunderstormDays } from '../../shared/engine/flash-density'
 import type { SiteInput } from '../../shared/engine/types'
 import type { Database } from '../db'
-import { portfolios, portfolioShares, portfolioSites, sites, siteStructures, tankComponents, tanks } from '../db/schema'
+import { portfolioSites, sites, siteStructures, tankComponents, tanks } from '../db/schema'
 
 export interface SiteFacts {
   name: string
@@ -21,16 +21,6 @@ export interface SiteFacts {
 }
 
 export interface SnapshotSite { site: SiteInput, facts: SiteFacts }
-
-/** A portfolio the organisation owns or that another organisation shared with it; null otherwise. */
-export async function findReadablePortfolio(db: Database, organisationId: string, portfolioId: string) {
-  const [row] = await db.select({ id: portfolios.id, name: portfolios.name, ownerId: portfolios.organisationId })
-    .from(portfolios)
-    .leftJoin(portfolioShares, and(eq(portfolioShares.portfolioId, portfolios.id), eq(portfolioShares.organisationId, organisationId)))
-    .where(and(eq(portfolios.id, portfolioId), or(eq(portfolios.organisationId, organisationId), eq(portfolioShares.organisationId, organisationId))))
-    .limit(1)
-  return row ?? null
-}
 
 export async function loadPortfolioSites(db: Database, portfolioId: string, assumptions: AssumptionSet): Promise<SnapshotSite[]> {
   const siteRows = await db.select({ site: sites }).from(portfolioSites)

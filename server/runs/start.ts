@@ -12,7 +12,8 @@ import { withClientTransaction } from '../db/transaction'
 import { queueOptions, useBoss } from '../jobs/queue'
 import { recordAudit } from '../utils/audit'
 import { recordRunTerms } from '../insurance/terms-store'
-import { findReadablePortfolio, inputHash, loadPortfolioSites } from './snapshot'
+import { readablePortfolio } from '../inventory/portfolio-access'
+import { inputHash, loadPortfolioSites } from './snapshot'
 
 export type StartRun = z.output<typeof startRunSchema>
 
@@ -22,8 +23,9 @@ export class RunStartError extends Error {
 
 export async function startRun(input: StartRun, by: { userId: string | null, organisationId: string }, options: { retryOf?: string } = {}) {
   const db = useDb()
-  const portfolio = await findReadablePortfolio(db, by.organisationId, input.portfolioId)
-  if (!portfolio) throw new RunStartError(404, 'Portfolio not found.')
+  const readable = await readablePortfolio(by.organisationId, input.portfolioId)
+  if (!readable) throw new RunStartError(404, 'Portfolio not found.')
+  const portfolio = readable.portfolio
   const [version] = await db.select({ v: assumptionSetVersions, setName: assumptionSets.name, archivedAt: assumptionSets.archivedAt }).from(assumptionSetVersions)
     .innerJoin(assumptionSets, eq(assumptionSets.id, assumptionSetVersions.assumptionSetId))
     .where(and(eq(assumptionSetVersions.id, input.assumptionVersionId), eq(assumptionSets.organisationId, by.organisationId)))

@@ -4,6 +4,7 @@ import type { Database } from '../db'
 import { runChunks, runs, runSiteResults, runTankResults } from '../db/schema'
 import type { Figure, SiteComputation } from './compute'
 import { encodeEvents } from './events-codec'
+import type { ChunkTiming } from './timing'
 
 const cols = (prefix: 'direct' | 'sparking' | 'ignition', f: Figure) => ({
   [`${prefix}Rate`]: f.rate, [`${prefix}Lo`]: f.lo, [`${prefix}Hi`]: f.hi, [`${prefix}Count`]: f.count ?? null,
@@ -22,7 +23,7 @@ export interface StoredChunk { alreadyDone: boolean, chunksDone: number, chunksT
  * Stores a chunk unless it is stored already. The chunk row is locked first, so two workers that
  * finish the same chunk (after a retry or an expiry) write it once.
  */
-export async function storeChunk(tx: Database, runId: string, chunkIndex: number, sites: SiteComputation[], worker: string): Promise<StoredChunk> {
+export async function storeChunk(tx: Database, runId: string, chunkIndex: number, sites: SiteComputation[], worker: string, timing?: () => ChunkTiming): Promise<StoredChunk> {
   const [chunk] = await tx.select().from(runChunks)
     .where(and(eq(runChunks.runId, runId), eq(runChunks.chunkIndex, chunkIndex))).for('update')
   if (!chunk) throw new Error(`chunk ${chunkIndex} of run ${runId} does not exist`)
@@ -49,7 +50,7 @@ export async function storeChunk(tx: Database, runId: string, chunkIndex: number
       }) as typeof runTankResults.$inferInsert))
     }
   }
-  await tx.update(runChunks).set({ state: 'done', completedAt: new Date(), worker })
+  await tx.update(runChunks).set({ state: 'done', completedAt: new Date(), worker, timing: timing?.() ?? null })
     .where(and(eq(runChunks.runId, runId), eq(runChunks.chunkIndex, chunkIndex)))
   const [run] = await tx.update(runs)
     .set({ chunksDone: sql`${runs.chunksDone} + 1`, sitesDone: sql`${runs.sitesDone} + ${sites.length}` })

@@ -1,5 +1,5 @@
 // Works one chunk of a run: compute its sites on the thread pool, store them, finalise if last.
-import { and, asc, eq, inArray } from 'drizzle-orm'
+import { and, asc, eq, inArray, sql } from 'drizzle-orm'
 import { hostname } from 'node:os'
 import { parseAssumptions } from '../../shared/engine/assumptions'
 import type { SiteInput } from '../../shared/engine/types'
@@ -10,6 +10,7 @@ import { notifyRunEnded } from './ending'
 import { finaliseRun } from './finalise'
 import { storeChunk } from './store'
 import { computeOnThread } from './thread-pool'
+import { epochMs, threadTransfer, type ChunkTiming } from './timing'
 
 export class SiteComputationError extends Error {}
 
@@ -17,7 +18,9 @@ const workerName = `${hostname()}:${process.pid}`
 
 export type ChunkOutcome = 'skipped' | 'stored' | 'duplicate' | 'finalised'
 
-export async function workChunk(runId: string, chunkIndex: number): Promise<ChunkOutcome> {
+/** `queuedAt`: when the chunk's job was queued (epoch ms), for the run's phase breakdown. */
+export async function workChunk(runId: string, chunkIndex: number, queuedAt: number | null = null): Promise<ChunkOutcome> {
+  const pickedUpAt = epochMs()
   const db = useDb()
   const [run] = await db.select().from(runs).where(eq(runs.id, runId))
   if (!run || !['queued', 'running'].includes(run.state)) return 'skipped'
@@ -35,18 +38,31 @@ export async function workChunk(runId: string, chunkIndex: number): Promise<Chun
   const snapshots = await db.select().from(runSiteSnapshots)
     .where(and(eq(runSiteSnapshots.runId, runId), inArray(runSiteSnapshots.siteId, chunk.siteIds)))
     .orderBy(asc(runSiteSnapshots.position))
+  const computeStart = epochMs()
+  const snapshotMs = computeStart - pickedUpAt
 
-  const computations = await Promise.all(snapshots.map(async (snap) => {
+  const handled = await Promise.all(snapshots.map(async (snap) => {
     const site = snap.site as SiteInput
+    const submittedAt = epochMs()
     try {
-      return await computeOnThread({
+      const computation = await computeOnThread({
         site, assumptions, mode: run.mode, runSeed: run.seed,
         targetRse: run.targetRse, maxSamplesPerTank: run.maxSamplesPerTank, negligibleRatePerYear: run.negligibleRatePerYear, years: run.years,
       })
+      return { computation, submittedAt, resolvedAt: epochMs() }
     } catch (error) {
       throw new SiteComputationError(`site "${site.name}" (${site.id}): ${(error as Error).message}`)
     }
-  })) satisfies SiteComputation[]
+  }))
+  const computations = handled.map(h => h.computation) satisfies SiteComputation[]
+  const storeStart = epochMs()
+  const transfer = threadTransfer(handled.map(h => ({ submittedAt: h.submittedAt, resolvedAt: h.resolvedAt, thread: h.computation.timing })))
+  const sumOf = (k: 'prepareMs' | 'figuresMs' | 'eventBandsMs') => computations.reduce((n, c) => n + c.timing[k], 0)
+  const timing: ChunkTiming = {
+    worker: workerName, queuedAt, pickedUpAt, endedAt: 0, snapshotMs, computeWallMs: storeStart - computeStart,
+    prepareMs: sumOf('prepareMs'), figuresMs: sumOf('figuresMs'), eventBandsMs: sumOf('eventBandsMs'), ...transfer,
+    storeMs: 0, finaliseMs: 0, sites: computations.length, tanks: computations.reduce((n, c) => n + c.tanks.length, 0),
+  }
 
   // The run may have been cancelled while this chunk computed: then nothing is stored.
   const stored = await db.transaction(async (tx) => {
@@ -54,10 +70,23 @@ export async function workChunk(runId: string, chunkIndex: number): Promise<Chun
     // deadlocking on the later update of the run's counters.
     const [current] = await tx.select({ state: runs.state }).from(runs).where(eq(runs.id, runId)).for('no key update')
     if (current?.state !== 'running') return null
-    return storeChunk(tx, runId, chunkIndex, computations, workerName)
+    return storeChunk(tx, runId, chunkIndex, computations, workerName, () => {
+      const endedAt = epochMs()
+      return { ...timing, storeMs: endedAt - storeStart, endedAt }
+    })
   })
   if (!stored) return 'skipped'
-  if (stored.chunksDone === stored.chunksTotal && (await finaliseIfComplete(runId))) return 'finalised'
+  if (stored.chunksDone === stored.chunksTotal) {
+    const finaliseStart = epochMs()
+    const finalised = await finaliseIfComplete(runId)
+    if (finalised) {
+      const endedAt = epochMs()
+      // The roll-up's time goes on the last chunk's timing (a figure for the benchmark; nothing reads it back).
+      await db.update(runChunks).set({ timing: sql`${runChunks.timing} || ${JSON.stringify({ finaliseMs: endedAt - finaliseStart, endedAt })}::jsonb` })
+        .where(and(eq(runChunks.runId, runId), eq(runChunks.chunkIndex, chunkIndex)))
+      return 'finalised'
+    }
+  }
   return stored.alreadyDone ? 'duplicate' : 'stored'
 }
 

@@ -5,8 +5,9 @@ import { and, eq, inArray, or, type SQL } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import { z } from 'zod'
 import { useDb } from '../db'
-import { organisations, portfolioShares, portfolioSites, portfolios, siteStructures, sites, tanks } from '../db/schema'
+import { portfolioShares, portfolioSites, siteStructures, sites, tanks } from '../db/schema'
 import type { Member } from './auth'
+import { readablePortfolio } from '../inventory/portfolio-access'
 
 const READ_ONLY = 'This inventory is shared with your organisation read-only; it can only be changed by the organisation that owns it.'
 
@@ -61,15 +62,11 @@ export async function findEditableStructure(member: Member, id: string) {
   return row
 }
 
+/** The portfolio if the member's organisation may read it (server/inventory/portfolio-access.ts); 404 otherwise. */
 export async function findReadablePortfolio(member: Member, id: string) {
-  const [row] = await useDb().select({ portfolio: portfolios, ownerName: organisations.name }).from(portfolios)
-    .innerJoin(organisations, eq(organisations.id, portfolios.organisationId))
-    .where(and(eq(portfolios.id, id), or(
-      eq(portfolios.organisationId, member.organisationId),
-      inArray(portfolios.id, useDb().select({ id: portfolioShares.portfolioId }).from(portfolioShares).where(eq(portfolioShares.organisationId, member.organisationId))),
-    )))
+  const row = await readablePortfolio(member.organisationId, id)
   if (!row) notFound('Portfolio')
-  return { ...row, readOnly: row.portfolio.organisationId !== member.organisationId }
+  return row
 }
 
 export async function findEditablePortfolio(member: Member, id: string) {

@@ -2,6 +2,7 @@ import { bigint, boolean, customType, doublePrecision, index, integer, jsonb, nu
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
 import { sql } from 'drizzle-orm'
+import type { ChunkTiming } from '../../runs/timing'
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
 
@@ -101,6 +102,8 @@ export const runChunks = pgTable('run_chunks', {
   attempts: integer('attempts').notNull().default(0),
   worker: text('worker'),
   completedAt: timestamp('completed_at', { withTimezone: true }),
+  /** Where the stored attempt's time went (server/runs/timing.ts); {} for chunks worked before it was measured. */
+  timing: jsonb('timing').$type<ChunkTiming | Record<string, never>>(),
 }, t => [primaryKey({ columns: [t.runId, t.chunkIndex] })])
 
 /** Annual frequencies (/yr) with 95 % intervals, and the expected annual loss with its interval. */

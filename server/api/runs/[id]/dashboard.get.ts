@@ -2,7 +2,7 @@
 // the total (top sites and tanks by expected fires) for a succeeded run.
 import { runIdParams } from '~~/shared/schemas/runs'
 import { exceedanceSeries, findSucceededRun, headline, portfolioResult, topSites, topTanks, type StoredYearSummary } from '~~/server/results/queries'
-import { cachedResult } from '~~/server/results/cache'
+import { cachedJson } from '~~/server/results/cache'
 
 const DRIVERS = 10
 
@@ -11,7 +11,9 @@ export default defineEventHandler(async (event) => {
   const { id } = readValidParams(event, runIdParams)
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
-  return cachedResult(`dashboard:${run.id}:${member.currency}`, async () => {
+  // Serialised once per run and currency (server/results/cache.ts), sent as it is.
+  setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
+  return cachedJson(`dashboard:${run.id}:${member.currency}`, async () => {
     const [portfolio, sites, tanks] = await Promise.all([portfolioResult(run.id), topSites(run.id, DRIVERS), topTanks(run.id, DRIVERS)])
     if (!portfolio) notFound('Results of this run')
     const summary = portfolio.yearSummary as StoredYearSummary | null

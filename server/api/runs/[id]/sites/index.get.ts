@@ -2,14 +2,16 @@
 // value (map, sites × metrics heatmap, site table).
 import { runIdParams } from '~~/shared/schemas/runs'
 import { findSucceededRun, siteResults } from '~~/server/results/queries'
-import { cachedResult } from '~~/server/results/cache'
+import { cachedJson } from '~~/server/results/cache'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
   const { id } = readValidParams(event, runIdParams)
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
-  return cachedResult(`sites:${run.id}:${member.currency}`, async () => {
+  // Serialised once per run and currency (server/results/cache.ts), sent as it is.
+  setResponseHeader(event, 'content-type', 'application/json; charset=utf-8')
+  return cachedJson(`sites:${run.id}:${member.currency}`, async () => {
     const sites = await siteResults(run.id)
     return {
       currency: member.currency,

@@ -1,8 +1,8 @@
 // Job 'scenario.site': one site of a capital scenario evaluation (baseline and its scenarios on
 // common random numbers). Retried by pg-boss; after the last attempt the evaluation fails.
 import type PgBoss from 'pg-boss'
-import { failEvaluation, workScenarioSite } from '../capital/evaluations'
-import type { JobPayloads } from './types'
+import { failEvaluation, workScenarioSite } from '../../capital/evaluations'
+import type { JobPayloads } from '../types'
 
 export async function handleScenarioSite(jobs: PgBoss.JobWithMetadata<JobPayloads['scenario.site']>[]): Promise<void> {
   for (const job of jobs) {

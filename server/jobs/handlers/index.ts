@@ -1,0 +1,27 @@
+// Which handler works which queue (the registry's entries, registry.ts). Handed to the worker
+// bootstrap by the worker entry (../worker.ts).
+import { failEvaluation } from '../../capital/evaluations'
+import { endRunUnsuccessfully, notifyRunEnded } from '../../runs/ending'
+import { threadCount } from '../../runs/thread-pool'
+import type { JobRegistry } from '../registry'
+import { handleMailSend } from './mail-send'
+import { handlePasswordReset } from './password-reset'
+import { handleRunChunk } from './run-chunk'
+import { handleScenarioSite } from './scenario-site'
+
+export const jobRegistry: JobRegistry = {
+  'mail.send': { handler: handleMailSend, work: { pollingIntervalSeconds: 1, batchSize: 5 }, concurrency: () => 1 },
+  'auth.password-reset': { handler: handlePasswordReset, work: { pollingIntervalSeconds: 1, batchSize: 5 }, concurrency: () => 1 },
+  // One chunk per core at a time; the chunk's sites spread over the thread pool.
+  'run.chunk': {
+    handler: handleRunChunk, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount, beats: true,
+    onAbandoned: async (data, message) => {
+      if (await endRunUnsuccessfully(data.runId, 'failed', `Chunk ${data.chunkIndex + 1} ${message}`)) await notifyRunEnded(data.runId)
+    },
+  },
+  // One site per core at a time (capital planning's scenario evaluations).
+  'scenario.site': {
+    handler: handleScenarioSite, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount, beats: true,
+    onAbandoned: (data, message) => failEvaluation(data.evaluationId, `Site ${data.siteId} ${message}`),
+  },
+}
