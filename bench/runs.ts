@@ -61,7 +61,7 @@ async function printPhases(runId: string, endToEnd: number, threadsInAll: number
   console.log(`    queue: enqueue → first chunk picked up ${secs(p.firstPickupMs)}; chunk slots idle (polling, waiting on the last chunks) ${secs(idle)} per slot`)
   console.log(`    snapshot read ${secs(p.snapshotMs)} · DB writes ${secs(p.storeMs)} · roll-up ${secs(p.finaliseMs)}`)
   console.log(`    engine: compiling sites ${secs(p.prepareMs)}, figures ${secs(p.figuresMs)}, heatmaps/event bands ${secs(p.eventBandsMs)} — ${secs(p.engineMs)} in all, ÷ ${threadsInAll} threads = ${secs(p.engineMs / threadsInAll)}`)
-  console.log(`    thread transfer: to the threads ${secs(p.toThreadMs)}, back ${secs(p.fromThreadMs)}`)
+  console.log(`    thread transfer: to the threads ${p.toThreadRunMs === null ? `${secs(p.toThreadMs)} (includes waiting behind other chunks)` : secs(p.toThreadRunMs)}, back ${secs(p.fromThreadMs)}`)
   console.log(`  end-to-end / (engine compute ÷ threads) = ${(endToEnd * 1000 / (p.engineMs / threadsInAll)).toFixed(2)}`)
 }
 

@@ -69,7 +69,10 @@ export interface SiteComputation {
   timing: SiteTiming
 }
 
-export interface SiteTiming extends SiteThreadTiming { prepareMs: number, figuresMs: number, eventBandsMs: number }
+export interface SiteTiming extends SiteThreadTiming {
+  threadId: number
+  prepareMs: number, figuresMs: number, eventBandsMs: number
+}
 
 
 /** A simulated count as a rate with the Garwood interval and the Poisson standard error √n / Y. */

@@ -18,9 +18,14 @@ export interface ChunkTiming {
   prepareMs: number
   figuresMs: number
   eventBandsMs: number
-  /** Summed over sites: handing a task to its thread (once the thread was free) and the result back. */
+  /**
+   * Summed over sites: handing a task to its thread (once the thread was free, as far as this chunk
+   * sees: another chunk's tasks on the same thread count here too, see `siteThreads`) and the result back.
+   */
   toThreadMs: number
   fromThreadMs: number
+  /** Per site: [thread id, handed over, started on the thread, ended there, back here] (epoch ms). */
+  siteThreads?: [number, number, number, number, number][]
   /** The transaction that stores the chunk's results. */
   storeMs: number
   /** The portfolio roll-up, when this chunk was the last one (0 otherwise). */
@@ -30,7 +35,7 @@ export interface ChunkTiming {
 }
 
 export interface SiteThreadTiming {
-  threadId: number
+  threadId: number | string
   /** Epoch ms on the thread when the task started and ended there. */
   startedAt: number
   endedAt: number
@@ -44,7 +49,7 @@ export interface SiteThreadTiming {
 export function threadTransfer(sites: { submittedAt: number, resolvedAt: number, thread: SiteThreadTiming }[]): { toThreadMs: number, fromThreadMs: number } {
   let toThreadMs = 0
   let fromThreadMs = 0
-  const byThread = new Map<number, typeof sites>()
+  const byThread = new Map<number | string, typeof sites>()
   for (const s of sites) {
     fromThreadMs += Math.max(0, s.resolvedAt - s.thread.endedAt)
     const list = byThread.get(s.thread.threadId)
@@ -76,6 +81,8 @@ export interface RunPhaseSummary {
   fromThreadMs: number
   storeMs: number
   finaliseMs: number
+  /** Transfer to the threads over the whole run (every chunk's sites on the same thread of the same worker). */
+  toThreadRunMs: number | null
   /** Handler time summed over chunks (pick-up to end). */
   handlerMs: number
   /** Engine compute on the threads: prepare + figures + event bands. */
@@ -87,7 +94,14 @@ export function summariseChunkTimings(runCreatedAt: number, timings: ChunkTiming
   const prepareMs = sum('prepareMs')
   const figuresMs = sum('figuresMs')
   const eventBandsMs = sum('eventBandsMs')
+  // A thread works the sites of every chunk of its worker: its free time is known only across chunks.
+  const all = timings.every(t => t.siteThreads)
+    ? timings.flatMap(t => t.siteThreads!.map(([id, submittedAt, startedAt, endedAt, resolvedAt]) => ({
+        submittedAt, resolvedAt, thread: { threadId: `${t.worker}#${id}`, startedAt, endedAt },
+      })))
+    : null
   return {
+    toThreadRunMs: all ? threadTransfer(all).toThreadMs : null,
     chunks: timings.length,
     sites: sum('sites'),
     firstPickupMs: timings.length ? Math.min(...timings.map(t => t.pickedUpAt)) - runCreatedAt : 0,

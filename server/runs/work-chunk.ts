@@ -62,6 +62,7 @@ export async function workChunk(runId: string, chunkIndex: number, queuedAt: num
     worker: workerName, queuedAt, pickedUpAt, endedAt: 0, snapshotMs, computeWallMs: storeStart - computeStart,
     prepareMs: sumOf('prepareMs'), figuresMs: sumOf('figuresMs'), eventBandsMs: sumOf('eventBandsMs'), ...transfer,
     storeMs: 0, finaliseMs: 0, sites: computations.length, tanks: computations.reduce((n, c) => n + c.tanks.length, 0),
+    siteThreads: handled.map(h => [h.computation.timing.threadId, h.submittedAt, h.computation.timing.startedAt, h.computation.timing.endedAt, h.resolvedAt]),
   }
 
   // The run may have been cancelled while this chunk computed: then nothing is stored.
