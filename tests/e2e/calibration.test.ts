@@ -19,8 +19,8 @@ beforeAll(async () => {
 })
 afterAll(async () => { await browser?.close(); await pool.end() })
 
-async function signedInPage(): Promise<Awaited<ReturnType<typeof openGuardedPage>>> {
-  const guarded = await openGuardedPage(browser)
+async function signedInPage(options: Parameters<typeof openGuardedPage>[1] = {}): Promise<Awaited<ReturnType<typeof openGuardedPage>>> {
+  const guarded = await openGuardedPage(browser, options)
   const [name, value] = cookie.split('=') as [string, string]
   await guarded.context.addCookies([{ name, value, url: inject('baseUrl') }])
   return guarded
@@ -58,6 +58,39 @@ describe('calibration in a real browser', () => {
     expect(await inked(page, 'impulse-chart')).toBeGreaterThan(1000)
     await page.waitForTimeout(1000) // let the chart's entry animation finish before the screenshot
     await saveScreenshot(page, 'calibration-impulse')
+    expect(outsideRequests).toEqual([])
+    await context.close()
+  })
+
+  it('impulse: saving as a new version confirms once, keeps the form, and the version names the calibration as the source', async () => {
+    // A zone twelve hours from UTC: a date written in the browser's local time would differ from the
+    // server's and Vue would report a hydration mismatch (console error in production builds).
+    const { page, context, outsideRequests, consoleErrors } = await signedInPage({ timezoneId: 'Pacific/Auckland' })
+    const setName = `Impulse save set ${Date.now()}`
+    const created = await page.request.post(`${inject('baseUrl')}/api/assumption-sets`, { data: { name: setName, description: '', parameters: {}, note: '' } })
+    expect(created.status()).toBeLessThan(300)
+    const list = await (await page.request.get(`${inject('baseUrl')}/api/calibrations`)).json() as Array<{ id: string, kind: string, title: string }>
+    const calibration = list.find(c => c.kind === 'impulse' && c.title === 'Float switch, example series')!
+    await page.goto(`${inject('baseUrl')}/calibration/${calibration.id}`, { waitUntil: 'networkidle' })
+    await page.getByTestId('save-set').selectOption({ label: setName })
+    const save = page.getByTestId('save-version')
+    await save.click()
+    await expect.poll(() => page.getByTestId('save-confirmation').innerText()).toContain(`version 2 of “${setName}”`)
+    // The button cannot save the same thing twice; the choices stay as they were.
+    expect(await save.isDisabled()).toBe(true)
+    expect(await save.innerText()).toBe('Saved as version 2')
+    expect(await page.getByTestId('save-set').locator('option:checked').innerText()).toBe(setName)
+    await saveScreenshot(page, 'calibration-saved-version')
+    await page.getByTestId('save-confirmation').getByRole('link').click()
+    await page.waitForURL(/\/assumptions\/versions\//)
+    const sources = page.getByTestId('calibrated-source')
+    await expect.poll(() => sources.count()).toBeGreaterThan(0)
+    const text = await sources.first().innerText()
+    expect(text).toContain('Float switch, example series')
+    expect(text).toContain('impulse-series.csv')
+    expect(text).toMatch(/UTC/)
+    await saveScreenshot(page, 'calibration-version-sources')
+    expect(consoleErrors.filter(e => /hydrat/i.test(e))).toEqual([])
     expect(outsideRequests).toEqual([])
     await context.close()
   })

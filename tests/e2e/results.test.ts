@@ -50,6 +50,26 @@ describe('results of the demo run in a real browser', () => {
     expect(guarded.outsideRequests).toEqual([])
   })
 
+  it('what-if from a run: no change before a control moves, and the run, site and tank survive a move and a reload', async () => {
+    const sites = await page.evaluate(async id => (await fetch(`/api/runs/${id}/sites`)).json(), runId) as { sites: { siteId: string }[] }
+    await page.goto(`${inject('baseUrl')}/results/${runId}/sites/${sites.sites[0]!.siteId}`, { waitUntil: 'networkidle' })
+    await page.getByRole('link', { name: 'What-if' }).first().click()
+    await page.getByTestId('whatif-stored').waitFor()
+    // Before any change every difference is "no change" (the stored run is a reference beside it, not a change).
+    await page.locator('[data-figure="ignition"] [data-role="difference"]').waitFor()
+    expect(await page.locator('[data-role="difference"]').allInnerTexts()).toEqual(['no change', 'no change', 'no change'])
+    expect(await page.locator('[data-role="stored"]').count()).toBe(3)
+    await page.getByTestId('number-tankHeightM').fill('12')
+    await page.waitForFunction(() => Number(new URL(location.href).searchParams.get('height')) === 12, undefined, { timeout: 5000 })
+    const url = new URL(page.url())
+    for (const key of ['run', 'site', 'tank']) expect(url.searchParams.get(key)).toBeTruthy()
+    await page.reload({ waitUntil: 'networkidle' })
+    await page.getByTestId('whatif-stored').waitFor()
+    expect(Number(await page.getByTestId('number-tankHeightM').inputValue())).toBe(12)
+    await saveScreenshot(page, 'results-whatif-reloaded')
+    expect(guarded.outsideRequests).toEqual([])
+  })
+
   it('compare: two sites side by side with the higher value of each row marked', async () => {
     const sites = await page.evaluate(async id => (await fetch(`/api/runs/${id}/sites`)).json(), runId) as { sites: { siteId: string }[] }
     const pair = sites.sites.slice(0, 2).map(s => s.siteId).join(',')
