@@ -26,6 +26,10 @@ describe('results of the demo run in a real browser', () => {
     await page.getByTestId('headline-tiles').waitFor()
     expect(await page.getByTestId('headline-tiles').textContent()).toMatch(/\/yr/)
     expect(await waitForDrawnChart(page, page.getByTestId('exceedance-chart'))).toBeGreaterThan(2000)
+    // Each curve has a legend entry and a tooltip name of its own, saying its kind (issue "Screens a practitioner reads at a glance").
+    const curves = await page.getByTestId('exceedance-chart').getByTestId('chart-series-names').textContent()
+    expect(curves).toContain(', aggregate (year total)')
+    expect(curves).toContain(', occurrence (largest event)')
     expect(await page.getByTestId('drivers-list').count()).toBe(2)
     expect(await waitForDrawnChart(page, page.getByTestId('map-sites'), 5000, 30_000)).toBeGreaterThan(5000)
     expect(await waitForDrawnChart(page, page.getByTestId('site-metric-heatmap'))).toBeGreaterThan(2000)
