@@ -43,7 +43,7 @@ const examples = resolve(import.meta.dirname, '../../docs/examples')
 describe('calibration in a real browser', () => {
   it('impulse: the example series gives both methods side by side, a drawn fit, and a saved calibration', async () => {
     const { page, context, outsideRequests } = await signedInPage()
-    await page.goto(`${inject('baseUrl')}/calibration/impulse`, { waitUntil: 'networkidle' })
+    await page.goto(`${inject('baseUrl')}/calibration/impulse`, { waitUntil: 'networkidle', timeout: 90_000 })
     await page.getByTestId('impulse-upload').setInputFiles(resolve(examples, 'impulse-series.csv'))
     // The example is the hand-worked series: up-and-down U50 = 92.8 kV (IEC 60060-1 mean of the valid levels).
     await expect.poll(() => page.getByTestId('up-and-down-result').innerText()).toContain('92.8 kV')
@@ -71,7 +71,7 @@ describe('calibration in a real browser', () => {
     expect(created.status()).toBeLessThan(300)
     const list = await (await page.request.get(`${inject('baseUrl')}/api/calibrations`)).json() as Array<{ id: string, kind: string, title: string }>
     const calibration = list.find(c => c.kind === 'impulse' && c.title === 'Float switch, example series')!
-    await page.goto(`${inject('baseUrl')}/calibration/${calibration.id}`, { waitUntil: 'networkidle' })
+    await page.goto(`${inject('baseUrl')}/calibration/${calibration.id}`, { waitUntil: 'networkidle', timeout: 90_000 })
     expect(consoleErrors.filter(e => /hydrat/i.test(e)).map(e => `calibration page: ${e}`)).toEqual([])
     await page.getByTestId('save-set').selectOption({ label: setName })
     const save = page.getByTestId('save-version')
@@ -92,7 +92,7 @@ describe('calibration in a real browser', () => {
     expect(text).toMatch(/UTC/)
     await saveScreenshot(page, 'calibration-version-sources')
     // Opened afresh (server-rendered, then hydrated in a zone far from UTC).
-    await page.reload({ waitUntil: 'networkidle' })
+    await page.reload({ waitUntil: 'networkidle', timeout: 90_000 })
     await sources.first().waitFor()
     expect(consoleErrors.filter(e => /hydrat/i.test(e)).map(e => `version page: ${e}`)).toEqual([])
     expect(outsideRequests).toEqual([])
@@ -101,7 +101,7 @@ describe('calibration in a real browser', () => {
 
   it('lightning: uploading, refusing a bad file with its row errors, and Ng with the fit plot', async () => {
     const { page, context, outsideRequests } = await signedInPage()
-    await page.goto(`${inject('baseUrl')}/calibration/lightning`, { waitUntil: 'networkidle' })
+    await page.goto(`${inject('baseUrl')}/calibration/lightning`, { waitUntil: 'networkidle', timeout: 90_000 })
     await page.getByTestId('lightning-upload').setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: Buffer.from('time,latitude,longitude,peak_current_ka,type\n2022-06-03T14:35:59Z,95.2,-95.4,-33.1,ground\n') })
     // Latitude beyond 90° is impossible (WGS 84); the row is named by its line.
     await expect.poll(() => page.getByTestId('row-errors').innerText()).toContain('latitude "95.2" must be decimal degrees between −90 and 90')
