@@ -7,6 +7,8 @@ export function useAccount() {
   const { session, user, loggedIn, fetch, clear } = useUserSession()
   const role = computed(() => session.value?.role ?? null)
   const roleLabel = computed(() => (role.value ? roleLabels[role.value] : ''))
+  /** The organisation's currency code (money is shown in it everywhere). */
+  const currency = computed(() => session.value?.currency ?? 'USD')
 
   async function signOut() {
     await $fetch('/api/auth/sign-out', { method: 'POST' }).catch(() => {})
@@ -21,7 +23,7 @@ export function useAccount() {
     await refreshNuxtData()
   }
 
-  return { session, user, loggedIn, role, roleLabel, refresh: fetch, signOut, switchOrganisation }
+  return { session, user, loggedIn, role, roleLabel, currency, refresh: fetch, signOut, switchOrganisation }
 }
 
 /** The message of a failed $fetch, for showing beside a form. */
@@ -30,11 +32,17 @@ export function errorMessage(error: unknown, fallback = 'Something went wrong. T
   return e?.data?.statusMessage ?? e?.statusMessage ?? e?.data?.message ?? fallback
 }
 
-/** Field messages from a 400 answer (`data.fields`: field path → message, from server/utils/validation.ts). */
+/**
+ * Field messages from a 400 answer: the server's one shape, `data.fields` (dotted field path →
+ * message, server/utils/validation.ts), keyed by the same dotted paths as `validateForm` and
+ * `useSchemaForm` give, so a message lands beside its control whichever side found it.
+ */
 export function fieldErrors(error: unknown): Record<string, string> {
-  const data = (error as { data?: { data?: unknown } })?.data?.data as { fields?: Record<string, string> } | undefined
+  const data: unknown = (error as { data?: { data?: unknown } } | null)?.data?.data
+  const fields: unknown = data && typeof data === 'object' && 'fields' in data ? data.fields : null
   const out: Record<string, string> = {}
-  for (const [path, message] of Object.entries(data?.fields ?? {})) out[path.split('.')[0] ?? ''] ??= message
+  if (!fields || typeof fields !== 'object') return out
+  for (const [path, message] of Object.entries(fields)) if (typeof message === 'string') out[path] ??= message
   return out
 }
 
@@ -45,7 +53,7 @@ export function validateForm<T>(schema: { safeParse: (v: unknown, params?: Parse
   if (result.success) return { data: result.data, errors: {} }
   const errors: Record<string, string> = {}
   for (const issue of result.error.issues) {
-    const key = String(issue.path[0] ?? '')
+    const key = issue.path.map(String).join('.')
     errors[key] ??= issue.message
   }
   return { errors }

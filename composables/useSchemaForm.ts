@@ -1,5 +1,6 @@
-// A form validated by the same zod schema the route uses: messages by field, and the server's
-// field messages (400 with data.fields) shown in the same places.
+// The one client form composable: a form validated by the same zod schema the route uses, messages by
+// dotted field path, and the server's field messages (400 with data.fields, read by fieldErrors) shown
+// in the same places.
 import type { z } from 'zod'
 import { inWords } from '~~/shared/schemas/messages'
 
@@ -24,8 +25,8 @@ export function useSchemaForm<T extends z.ZodType>(schema: T) {
     try {
       return await request()
     } catch (error) {
-      const e = error as { data?: { statusMessage?: string, message?: string, data?: { fields?: Record<string, string> } } }
-      errors.value = e.data?.data?.fields ?? {}
+      const e = error as { data?: { statusMessage?: string, message?: string } }
+      errors.value = fieldErrors(error)
       formError.value = e.data?.statusMessage ?? e.data?.message ?? 'The change could not be saved. Try again.'
       return null
     } finally {
@@ -38,8 +39,8 @@ export function useSchemaForm<T extends z.ZodType>(schema: T) {
 
 /** Whether the signed-in role may change the inventory (the server checks again). */
 export function useCanEditInventory() {
-  const { session } = useUserSession()
-  return computed(() => session.value?.role === 'admin' || session.value?.role === 'analyst')
+  const { may } = useRole()
+  return computed(() => may('editInventory'))
 }
 
 /** An optional number input: '' → null. */

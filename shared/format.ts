@@ -126,3 +126,51 @@ export function formatShare(share: number | null | undefined, digits = 3): strin
   if (share === null || share === undefined || Number.isNaN(share)) return '—'
   return `${formatNumber(share * 100, digits)} %`
 }
+
+/** A whole count with thousands separators: 12345 → "12,345". */
+export function formatCount(count: number | null | undefined): string {
+  if (count === null || count === undefined || Number.isNaN(count)) return '—'
+  return Math.round(count).toLocaleString('en-GB')
+}
+
+/**
+ * Money for chart axes and tiles, shortened: "USD 15 M", "USD 850 k", "USD 1.2 bn" (never "1.5 × 10⁷").
+ * Amounts under a thousand are written out.
+ */
+export function formatMoneyShort(amount: number | null | undefined, currency = 'USD'): string {
+  if (amount === null || amount === undefined || Number.isNaN(amount)) return '—'
+  const abs = Math.abs(amount)
+  const steps: Array<[number, string]> = [[1e9, 'bn'], [1e6, 'M'], [1e3, 'k']]
+  for (const [size, suffix] of steps) {
+    if (abs >= size) return `${currency} ${roundSignificant(amount / size, 3).toLocaleString('en-GB')} ${suffix}`
+  }
+  return `${currency} ${roundSignificant(amount, 3).toLocaleString('en-GB')}`
+}
+
+// Dates and times: one format, in UTC, so the server and the browser render the same text (no
+// hydration mismatch) and readers in different places read the same moment.
+
+/** "2026-03-14 09:05 UTC". */
+export function formatDateTime(value: string | Date | null | undefined): string {
+  if (!value) return '—'
+  const d = typeof value === 'string' ? new Date(value) : value
+  if (Number.isNaN(d.getTime())) return '—'
+  return `${d.toISOString().slice(0, 10)} ${d.toISOString().slice(11, 16)} UTC`
+}
+
+/** "2026-03-14" (the UTC date). */
+export function formatDate(value: string | Date | null | undefined): string {
+  if (!value) return '—'
+  const d = typeof value === 'string' ? new Date(value) : value
+  return Number.isNaN(d.getTime()) ? '—' : d.toISOString().slice(0, 10)
+}
+
+/** 75 → "1 min 15 s"; 3 → "3 s"; 4000 → "1 h 6 min". */
+export function formatDuration(seconds: number | null | undefined): string {
+  if (seconds === null || seconds === undefined || !Number.isFinite(seconds)) return '—'
+  const s = Math.round(seconds)
+  if (s < 60) return `${s} s`
+  const m = Math.floor(s / 60)
+  if (m < 60) return `${m} min${s % 60 ? ` ${s % 60} s` : ''}`
+  return `${Math.floor(m / 60)} h${m % 60 ? ` ${m % 60} min` : ''}`
+}

@@ -8,6 +8,7 @@ export function toSparkingGrid(h: TankHeatmap): TankSparkingGrid {
     currentsKa: h.currentsKa,
     distancesM: h.distancesM,
     probability: h.sparkingProbability,
+    directZone: h.directZone,
     directStrikeDistanceM: h.directZone.map((row) => {
       let last = -1
       row.forEach((inside, j) => { if (inside) last = j })

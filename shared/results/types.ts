@@ -87,8 +87,10 @@ export interface TankSparkingGrid {
   distancesM: number[]
   /** probability[i][j]: current i, distance j. */
   probability: number[][]
-  /** directStrikeDistanceM[i]: flashes of current i landing closer than this strike the tank. */
+  /** directStrikeDistanceM[i]: the farthest grid distance at which flashes of current i strike the tank (0: none). */
   directStrikeDistanceM: number[]
+  /** directZone[i][j]: flashes of current i at distance j strike the tank (the engine's own cells, when known). */
+  directZone?: boolean[][]
 }
 
 /** A site's events (sparking, direct strikes) by stroke-current band × distance band. */

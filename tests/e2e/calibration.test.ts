@@ -19,8 +19,8 @@ beforeAll(async () => {
 })
 afterAll(async () => { await browser?.close(); await pool.end() })
 
-async function signedInPage(): Promise<Awaited<ReturnType<typeof openGuardedPage>>> {
-  const guarded = await openGuardedPage(browser)
+async function signedInPage(options: Parameters<typeof openGuardedPage>[1] = {}): Promise<Awaited<ReturnType<typeof openGuardedPage>>> {
+  const guarded = await openGuardedPage(browser, options)
   const [name, value] = cookie.split('=') as [string, string]
   await guarded.context.addCookies([{ name, value, url: inject('baseUrl') }])
   return guarded
@@ -43,7 +43,7 @@ const examples = resolve(import.meta.dirname, '../../docs/examples')
 describe('calibration in a real browser', () => {
   it('impulse: the example series gives both methods side by side, a drawn fit, and a saved calibration', async () => {
     const { page, context, outsideRequests } = await signedInPage()
-    await page.goto(`${inject('baseUrl')}/calibration/impulse`, { waitUntil: 'networkidle' })
+    await page.goto(`${inject('baseUrl')}/calibration/impulse`, { waitUntil: 'networkidle', timeout: 90_000 })
     await page.getByTestId('impulse-upload').setInputFiles(resolve(examples, 'impulse-series.csv'))
     // The example is the hand-worked series: up-and-down U50 = 92.8 kV (IEC 60060-1 mean of the valid levels).
     await expect.poll(() => page.getByTestId('up-and-down-result').innerText()).toContain('92.8 kV')
@@ -62,9 +62,46 @@ describe('calibration in a real browser', () => {
     await context.close()
   })
 
+  it('impulse: saving as a new version confirms once, keeps the form, and the version names the calibration as the source', async () => {
+    // A zone twelve hours from UTC: a date written in the browser's local time would differ from the
+    // server's and Vue would report a hydration mismatch (console error in production builds).
+    const { page, context, outsideRequests, consoleErrors } = await signedInPage({ timezoneId: 'Pacific/Auckland' })
+    const setName = `Impulse save set ${Date.now()}`
+    const created = await page.request.post(`${inject('baseUrl')}/api/assumption-sets`, { data: { name: setName, description: '', parameters: {}, note: '' } })
+    expect(created.status()).toBeLessThan(300)
+    const list = await (await page.request.get(`${inject('baseUrl')}/api/calibrations`)).json() as Array<{ id: string, kind: string, title: string }>
+    const calibration = list.find(c => c.kind === 'impulse' && c.title === 'Float switch, example series')!
+    await page.goto(`${inject('baseUrl')}/calibration/${calibration.id}`, { waitUntil: 'networkidle', timeout: 90_000 })
+    expect(consoleErrors.filter(e => /hydrat/i.test(e)).map(e => `calibration page: ${e}`)).toEqual([])
+    await page.getByTestId('save-set').selectOption({ label: setName })
+    const save = page.getByTestId('save-version')
+    await save.click()
+    await expect.poll(() => page.getByTestId('save-confirmation').innerText()).toContain(`version 2 of “${setName}”`)
+    // The button cannot save the same thing twice; the choices stay as they were.
+    expect(await save.isDisabled()).toBe(true)
+    expect(await save.innerText()).toBe('Saved as version 2')
+    expect(await page.getByTestId('save-set').locator('option:checked').innerText()).toBe(setName)
+    await saveScreenshot(page, 'calibration-saved-version')
+    await page.getByTestId('save-confirmation').getByRole('link').click()
+    await page.waitForURL(/\/assumptions\/versions\//)
+    const sources = page.getByTestId('calibrated-source')
+    await expect.poll(() => sources.count()).toBeGreaterThan(0)
+    const text = await sources.first().innerText()
+    expect(text).toContain('Float switch, example series')
+    expect(text).toContain('impulse-series.csv')
+    expect(text).toMatch(/UTC/)
+    await saveScreenshot(page, 'calibration-version-sources')
+    // Opened afresh (server-rendered, then hydrated in a zone far from UTC).
+    await page.reload({ waitUntil: 'networkidle', timeout: 90_000 })
+    await sources.first().waitFor()
+    expect(consoleErrors.filter(e => /hydrat/i.test(e)).map(e => `version page: ${e}`)).toEqual([])
+    expect(outsideRequests).toEqual([])
+    await context.close()
+  })
+
   it('lightning: uploading, refusing a bad file with its row errors, and Ng with the fit plot', async () => {
     const { page, context, outsideRequests } = await signedInPage()
-    await page.goto(`${inject('baseUrl')}/calibration/lightning`, { waitUntil: 'networkidle' })
+    await page.goto(`${inject('baseUrl')}/calibration/lightning`, { waitUntil: 'networkidle', timeout: 90_000 })
     await page.getByTestId('lightning-upload').setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: Buffer.from('time,latitude,longitude,peak_current_ka,type\n2022-06-03T14:35:59Z,95.2,-95.4,-33.1,ground\n') })
     // Latitude beyond 90° is impossible (WGS 84); the row is named by its line.
     await expect.poll(() => page.getByTestId('row-errors').innerText()).toContain('latitude "95.2" must be decimal degrees between −90 and 90')

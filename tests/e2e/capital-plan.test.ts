@@ -42,7 +42,7 @@ describe('capital plan', () => {
     await expect.poll(() => page.getByTestId('plan-row').count()).toBe(1)
     await saveScreenshot(page, 'capital-plan')
 
-    const href = await page.getByTestId('export-plan').first().getAttribute('href')
+    const href = await page.getByTestId('export-plan').first().locator('button').getAttribute('data-href')
     const res = await page.request.get(`${base}${href}`)
     expect(res.status()).toBe(200)
     const wb = new ExcelJS.Workbook()

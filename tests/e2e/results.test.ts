@@ -26,6 +26,10 @@ describe('results of the demo run in a real browser', () => {
     await page.getByTestId('headline-tiles').waitFor()
     expect(await page.getByTestId('headline-tiles').textContent()).toMatch(/\/yr/)
     expect(await waitForDrawnChart(page, page.getByTestId('exceedance-chart'))).toBeGreaterThan(2000)
+    // Each curve has a legend entry and a tooltip name of its own, saying its kind (issue "Screens a practitioner reads at a glance").
+    const curves = await page.getByTestId('exceedance-chart').getByTestId('chart-series-names').textContent()
+    expect(curves).toContain(', aggregate (year total)')
+    expect(curves).toContain(', occurrence (largest event)')
     expect(await page.getByTestId('drivers-list').count()).toBe(2)
     expect(await waitForDrawnChart(page, page.getByTestId('map-sites'), 5000, 30_000)).toBeGreaterThan(5000)
     expect(await waitForDrawnChart(page, page.getByTestId('site-metric-heatmap'))).toBeGreaterThan(2000)
@@ -47,6 +51,26 @@ describe('results of the demo run in a real browser', () => {
     await page.getByTestId('whatif-stored').waitFor()
     expect(await page.getByTestId('whatif-stored').textContent()).toMatch(/stored run/)
     await saveScreenshot(page, 'results-whatif-from-run')
+    expect(guarded.outsideRequests).toEqual([])
+  })
+
+  it('what-if from a run: no change before a control moves, and the run, site and tank survive a move and a reload', async () => {
+    const sites = await page.evaluate(async id => (await fetch(`/api/runs/${id}/sites`)).json(), runId) as { sites: { siteId: string }[] }
+    await page.goto(`${inject('baseUrl')}/results/${runId}/sites/${sites.sites[0]!.siteId}`, { waitUntil: 'networkidle' })
+    await page.getByRole('link', { name: 'What-if' }).first().click()
+    await page.getByTestId('whatif-stored').waitFor()
+    // Before any change every difference is "no change" (the stored run is a reference beside it, not a change).
+    await page.locator('[data-figure="ignition"] [data-role="difference"]').waitFor()
+    expect(await page.locator('[data-role="difference"]').allInnerTexts()).toEqual(['no change', 'no change', 'no change'])
+    expect(await page.locator('[data-role="stored"]').count()).toBe(3)
+    await page.getByTestId('number-tankHeightM').fill('12')
+    await page.waitForFunction(() => Number(new URL(location.href).searchParams.get('height')) === 12, undefined, { timeout: 5000 })
+    const url = new URL(page.url())
+    for (const key of ['run', 'site', 'tank']) expect(url.searchParams.get(key)).toBeTruthy()
+    await page.reload({ waitUntil: 'networkidle' })
+    await page.getByTestId('whatif-stored').waitFor()
+    expect(Number(await page.getByTestId('number-tankHeightM').inputValue())).toBe(12)
+    await saveScreenshot(page, 'results-whatif-reloaded')
     expect(guarded.outsideRequests).toEqual([])
   })
 

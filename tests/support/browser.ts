@@ -2,7 +2,7 @@
 // leaves this machine (the product ships its fonts, basemap and scripts).
 import { mkdirSync } from 'node:fs'
 import { resolve } from 'node:path'
-import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core'
+import { chromium, type Browser, type BrowserContext, type BrowserContextOptions, type Page } from 'playwright-core'
 
 const LOCAL_HOSTS = new Set(['localhost', '127.0.0.1', '[::1]'])
 export const screenshotDir = resolve(import.meta.dirname, '../../test-results/screenshots')
@@ -17,8 +17,9 @@ export async function launchBrowser(): Promise<Browser> {
 
 export interface GuardedPage { page: Page, context: BrowserContext, outsideRequests: string[], consoleErrors: string[] }
 
-export async function openGuardedPage(browser: Browser): Promise<GuardedPage> {
-  const context = await browser.newContext({ viewport: { width: 1360, height: 900 } })
+/** `options` adds to the context (e.g. a `timezoneId` far from UTC, to catch dates rendered in local time). */
+export async function openGuardedPage(browser: Browser, options: BrowserContextOptions = {}): Promise<GuardedPage> {
+  const context = await browser.newContext({ viewport: { width: 1360, height: 900 }, ...options })
   const outsideRequests: string[] = []
   const consoleErrors: string[] = []
   await context.route('**/*', (route) => {

@@ -38,12 +38,26 @@ describe('formatting for reading', () => {
 })
 
 describe('durations', async () => {
-  const { formatDuration } = await import('../../shared/format-time')
+  const { formatDuration } = await import('../../shared/format')
   it('reads as minutes and seconds', () => {
     // Arithmetic (common practice): 75 s = 1 min 15 s; 4000 s = 1 h 6 min 40 s → rounded to minutes.
     expect(formatDuration(3)).toBe('3 s')
     expect(formatDuration(75)).toBe('1 min 15 s')
     expect(formatDuration(4000)).toBe('1 h 6 min')
     expect(formatDuration(null)).toBe('—')
+  })
+})
+
+describe('short money and counts', async () => {
+  const { formatMoneyShort, formatCount, formatDateTime } = await import('../../shared/format')
+  it('writes axis money in plain currency (issue "Screens a practitioner reads at a glance": USD 15 M, not 1.5 × 10⁷)', () => {
+    expect(formatMoneyShort(15_000_000, 'USD')).toBe('USD 15 M')
+    expect(formatMoneyShort(850_000, 'EUR')).toBe('EUR 850 k')
+    expect(formatMoneyShort(1_250_000_000, 'USD')).toBe('USD 1.25 bn')
+    expect(formatMoneyShort(0, 'USD')).toBe('USD 0')
+  })
+  it('writes counts with thousands separators and moments in UTC (common practice)', () => {
+    expect(formatCount(12345)).toBe('12,345')
+    expect(formatDateTime('2026-03-14T21:05:00-03:00')).toBe('2026-03-15 00:05 UTC')
   })
 })
