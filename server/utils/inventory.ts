@@ -36,7 +36,7 @@ export async function findReadableSite(member: Member, id: string) {
 
 export async function findEditableSite(member: Member, id: string) {
   const { site, readOnly } = await findReadableSite(member, id)
-  if (readOnly) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  if (readOnly) forbidden(READ_ONLY)
   return site
 }
 
@@ -49,7 +49,7 @@ export async function findReadableTank(member: Member, id: string) {
 
 export async function findEditableTank(member: Member, id: string) {
   const row = await findReadableTank(member, id)
-  if (row.readOnly) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  if (row.readOnly) forbidden(READ_ONLY)
   return row
 }
 
@@ -57,7 +57,7 @@ export async function findEditableStructure(member: Member, id: string) {
   const [row] = await useDb().select({ structure: siteStructures, site: sites }).from(siteStructures).innerJoin(sites, eq(sites.id, siteStructures.siteId))
     .where(and(eq(siteStructures.id, id), readableSites(member.organisationId)))
   if (!row) notFound('Structure')
-  if (row.site.organisationId !== member.organisationId) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  if (row.site.organisationId !== member.organisationId) forbidden(READ_ONLY)
   return row
 }
 
@@ -74,7 +74,7 @@ export async function findReadablePortfolio(member: Member, id: string) {
 
 export async function findEditablePortfolio(member: Member, id: string) {
   const row = await findReadablePortfolio(member, id)
-  if (row.readOnly) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  if (row.readOnly) forbidden(READ_ONLY)
   return row.portfolio
 }
 

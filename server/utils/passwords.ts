@@ -17,5 +17,5 @@ export async function checkPassword(storedHash: string | null, plain: string): P
 /** Throws 400 with a message by the field when a new password breaks the rules. */
 export function assertPasswordAllowed(password: string, email: string, field = 'password'): void {
   const problem = passwordProblem(password, email)
-  if (problem) throw createError({ statusCode: 400, statusMessage: problem, data: { fieldErrors: { [field]: [problem] } } })
+  if (problem) fieldProblem(field, problem)
 }

@@ -26,7 +26,7 @@ export function validateInput<T extends z.ZodType>(schema: T, value: unknown): z
   const nul = findNul(value)
   if (nul) {
     const where = nul.length ? ` from ${nul.join('.').slice(0, 100)}` : ''
-    badRequest(`Remove the NUL character (\\0)${where}: text may not contain it.`, nul.length ? { fields: { [nul.join('.')]: 'Remove the NUL character (\\0).' } } : undefined)
+    badRequest(`Remove the NUL character (\\0)${where}: text may not contain it.`, nul.length ? { [nul.join('.')]: 'Remove the NUL character (\\0).' } : undefined)
   }
   const parsed = schema.safeParse(value, { error: inWords })
   if (!parsed.success) invalidInput(parsed.error)

@@ -15,7 +15,7 @@ export default defineEventHandler(async (event) => {
   const [user] = await db.select().from(users).where(eq(users.id, member.user.id))
   if (!(await checkPassword(user?.passwordHash ?? null, body.currentPassword))) {
     await recordSignInAttempt(member.user.email, address, false)
-    throw createError({ statusCode: 400, statusMessage: 'The current password is not right.', data: { fieldErrors: { currentPassword: ['The current password is not right.'] } } })
+    fieldProblem('currentPassword', 'The current password is not right.')
   }
   assertPasswordAllowed(body.newPassword, member.user.email, 'newPassword')
   const passwordHash = await hashPassword(body.newPassword)

@@ -4,17 +4,12 @@
 // deductibles, from the stored events (no new simulation).
 import { runIdParams } from '~~/shared/schemas/runs'
 import { financialQuerySchema } from '~~/shared/schemas/insurance'
-import { FinancialViewError, financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
+import { financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
   const { id } = readValidParams(event, runIdParams)
   const query = readValidQuery(event, financialQuerySchema)
-  try {
-    const inputs = await loadFinancialInputs(member.organisationId, id, query.termsVersionId)
-    return { currency: member.currency, ...financialView(inputs, query) }
-  } catch (error) {
-    if (error instanceof FinancialViewError) throw createError({ statusCode: error.statusCode, statusMessage: error.message })
-    throw error
-  }
+  const inputs = await loadFinancialInputs(member.organisationId, id, query.termsVersionId)
+  return { currency: member.currency, ...financialView(inputs, query) }
 })
