@@ -2,20 +2,11 @@
 // sites, tanks and structures; it reads (never writes) those of a portfolio shared with it.
 // Another organisation's rows answer 404; a write to a row shared read-only answers 403.
 import { and, eq, inArray, or, type SQL } from 'drizzle-orm'
-import type { H3Event } from 'h3'
-import { z } from 'zod'
 import { useDb } from '../db'
 import { organisations, portfolioShares, portfolioSites, portfolios, siteStructures, sites, tanks } from '../db/schema'
 import type { Member } from './auth'
 
 const READ_ONLY = 'This inventory is shared with your organisation read-only; it can only be changed by the organisation that owns it.'
-
-/** The route's `id` param as a uuid; anything else cannot name a row, so it is a 404. */
-export function routeUuid(event: H3Event, what: string, name = 'id'): string {
-  const parsed = z.uuid().safeParse(getRouterParam(event, name))
-  if (!parsed.success) notFound(what)
-  return parsed.data
-}
 
 /** Ids of the sites in portfolios shared with the organisation. */
 export function sharedSiteIds(organisationId: string) {

@@ -51,8 +51,6 @@ export const resetConfirmSchema = z.object({ password: newPasswordSchema })
 
 export const tokenParamsSchema = z.object({ token: z.string().min(20).max(100).regex(/^[\w-]+$/) })
 
-export const idParamsSchema = z.object({ id: z.string().uuid() })
-
 export const inviteSchema = z.object({ email, role: roleEnum })
 export type InviteInput = z.infer<typeof inviteSchema>
 

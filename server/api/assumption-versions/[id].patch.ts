@@ -1,7 +1,7 @@
 // PATCH /api/assumption-versions/:id — change values. A version no run has used changes in place;
 // a used version stays as it is and the changes become the set's next version.
 import { eq } from 'drizzle-orm'
-import { assumptionVersionEditSchema, uuidParams } from '~~/shared/schemas/assumptions'
+import { assumptionVersionEditSchema } from '~~/shared/schemas/assumptions'
 import { parseAssumptions } from '~~/shared/engine/assumptions'
 import { useDb } from '~~/server/db'
 import { assumptionSetVersions } from '~~/server/db/schema'
@@ -9,7 +9,7 @@ import { addVersion, findVersion, mergeParameters } from '~~/server/assumptions/
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { id } = readValidParams(event, uuidParams)
+  const id = readId(event, 'Assumption-set version')
   const body = await readValidBody(event, assumptionVersionEditSchema)
   const row = await findVersion(member.organisationId, id)
   if (!row) notFound('Assumption-set version')

@@ -5,7 +5,7 @@ import { organisations, portfolioShares } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const id = routeUuid(event, 'Portfolio')
+  const id = readId(event, 'Portfolio')
   const { portfolio, ownerName, readOnly } = await findReadablePortfolio(member, id)
   const shares = readOnly ? [] : await useDb().select({ id: portfolioShares.id, organisationId: portfolioShares.organisationId, organisationName: organisations.name, createdAt: portfolioShares.createdAt })
     .from(portfolioShares).innerJoin(organisations, eq(organisations.id, portfolioShares.organisationId))

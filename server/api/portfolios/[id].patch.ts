@@ -6,7 +6,7 @@ import { portfolioSchema } from '~~/shared/schemas/inventory'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const before = await findEditablePortfolio(member, routeUuid(event, 'Portfolio'))
+  const before = await findEditablePortfolio(member, readId(event, 'Portfolio'))
   const body = await readValidBody(event, portfolioSchema)
   return useDb().transaction(async (tx) => {
     const [after] = await tx.update(portfolios).set(body).where(eq(portfolios.id, before.id)).returning()

@@ -4,6 +4,6 @@ import { siteDetail } from '~~/server/inventory/queries'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { site } = await findReadableSite(member, routeUuid(event, 'Site'))
+  const { site } = await findReadableSite(member, readId(event, 'Site'))
   return (await siteDetail(useDb(), site.id, member.organisationId)) ?? notFound('Site')
 })

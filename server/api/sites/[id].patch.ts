@@ -6,7 +6,7 @@ import { siteSchema } from '~~/shared/schemas/inventory'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const before = await findEditableSite(member, routeUuid(event, 'Site'))
+  const before = await findEditableSite(member, readId(event, 'Site'))
   const body = await readValidBody(event, siteSchema)
   return useDb().transaction(async (tx) => {
     const [after] = await tx.update(sites).set(body).where(eq(sites.id, before.id)).returning()

@@ -6,7 +6,7 @@ import { portfolioShareSchema } from '~~/shared/schemas/inventory'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })
-  const portfolio = await findEditablePortfolio(member, routeUuid(event, 'Portfolio'))
+  const portfolio = await findEditablePortfolio(member, readId(event, 'Portfolio'))
   const body = await readValidBody(event, portfolioShareSchema)
   const db = useDb()
   const [target] = await db.select({ id: organisations.id, name: organisations.name }).from(organisations).where(eq(organisations.name, body.organisationName))

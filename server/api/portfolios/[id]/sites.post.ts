@@ -6,7 +6,7 @@ import { portfolioSitesSchema } from '~~/shared/schemas/inventory'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const portfolio = await findEditablePortfolio(member, routeUuid(event, 'Portfolio'))
+  const portfolio = await findEditablePortfolio(member, readId(event, 'Portfolio'))
   const body = await readValidBody(event, portfolioSitesSchema)
   const db = useDb()
   // A portfolio holds only its own organisation's sites.

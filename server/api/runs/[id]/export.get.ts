@@ -1,6 +1,5 @@
 // GET /api/runs/:id/export — the results workbook of a succeeded run (everyone but viewers); audited.
 import { eq } from 'drizzle-orm'
-import { runIdParams } from '~~/shared/schemas/runs'
 import { useDb } from '~~/server/db'
 import { runTankResults, users } from '~~/server/db/schema'
 import { findVersion } from '~~/server/assumptions/versions'
@@ -10,7 +9,7 @@ import { settings } from '~~/server/settings'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Results of this run')
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
   const db = useDb()

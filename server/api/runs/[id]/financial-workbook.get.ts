@@ -1,13 +1,12 @@
 // GET /api/runs/:id/financial-workbook — the financial view as a workbook (Summary with cautions and
 // provenance, Sites, Premium, Exceedance), with the same query as the view.
-import { runIdParams } from '~~/shared/schemas/runs'
 import { financialQuerySchema } from '~~/shared/schemas/insurance'
 import { financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
 import { writeFinancialWorkbook } from '~~/server/insurance/workbook'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Results of this run')
   const query = readValidQuery(event, financialQuerySchema)
   const view = financialView(await loadFinancialInputs(member.organisationId, id, query.termsVersionId), { ...query, whatIfOccurrenceDeductible: undefined, whatIfAggregateDeductible: undefined })
   const body = await writeFinancialWorkbook(view, { currency: member.currency, exportedBy: `${member.user.name} <${member.user.email}>`, exportedAt: new Date() })

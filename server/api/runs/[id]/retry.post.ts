@@ -1,12 +1,11 @@
 // POST /api/runs/:id/retry — start a new run with the same portfolio, assumptions, mode, seed and
 // targets (on the inventory as it is now).
-import { runIdParams } from '~~/shared/schemas/runs'
 import { getRun } from '~~/server/runs/queries'
 import { startRun } from '~~/server/runs/start'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Run')
   const run = await getRun(member.organisationId, id)
   if (!run) notFound('Run')
   const again = await startRun({

@@ -5,7 +5,7 @@ import { siteNotes } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })
-  const { site } = await findReadableSite(member, routeUuid(event, 'Site'))
+  const { site } = await findReadableSite(member, readId(event, 'Site'))
   const { body } = await readValidBody(event, siteNoteSchema)
   return useDb().transaction(async (tx) => {
     const [note] = await tx.insert(siteNotes).values({ organisationId: member.organisationId, siteId: site.id, authorId: member.user.id, body }).returning()

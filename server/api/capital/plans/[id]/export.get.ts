@@ -1,12 +1,11 @@
 // GET /api/capital/plans/:id/export — the plan as a workbook, with the caution (everyone but viewers).
-import { idParams } from '~~/shared/schemas/capital'
 import { useDb } from '~~/server/db'
 import { planDetail } from '~~/server/capital/plan-detail'
 import { writePlanWorkbook } from '~~/server/capital/workbook'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { id } = readValidParams(event, idParams)
+  const id = readId(event, 'Plan')
   const detail = await planDetail(useDb(), member.organisationId, id)
   if (!detail) notFound('Plan')
   const body = await writePlanWorkbook(detail, member.currency)

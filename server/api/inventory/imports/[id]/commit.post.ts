@@ -6,7 +6,7 @@ const body = z.object({ portfolioId: z.uuid().nullable().default(null) })
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const id = routeUuid(event, 'Import')
+  const id = readId(event, 'Import')
   const { portfolioId } = await readValidBody(event, body)
   return commitImport(event, member, id, portfolioId)
 })
