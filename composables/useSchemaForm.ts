@@ -2,6 +2,7 @@
 // field messages (400 with data.fields) shown in the same places.
 import type { z } from 'zod'
 import { fieldMessages, inWords } from '~~/shared/schemas/messages'
+import { EDITOR_ROLES, roleIn } from '~~/shared/roles'
 
 export function useSchemaForm<T extends z.ZodType>(schema: T) {
   const errors = ref<Record<string, string>>({})
@@ -39,7 +40,7 @@ export function useSchemaForm<T extends z.ZodType>(schema: T) {
 /** Whether the signed-in role may change the inventory (the server checks again). */
 export function useCanEditInventory() {
   const { session } = useUserSession()
-  return computed(() => session.value?.role === 'admin' || session.value?.role === 'analyst')
+  return computed(() => roleIn(EDITOR_ROLES, session.value?.role))
 }
 
 /** An optional number input: '' → null. */

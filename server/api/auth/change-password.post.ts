@@ -5,6 +5,9 @@ import { changePasswordSchema } from '~~/shared/schemas/auth'
 import { useDb } from '~~/server/db'
 import { users } from '~~/server/db/schema'
 import { passwordChangedMail } from '~~/server/mail/templates'
+import { revokeUserSessions } from '~~/server/accounts/sessions'
+import { assertSignInAllowed, recordSignInAttempt } from '~~/server/accounts/sign-in-throttle'
+import { assertPasswordAllowed, checkPassword } from '~~/server/accounts/passwords'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.everyone })

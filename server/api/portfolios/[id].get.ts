@@ -2,6 +2,7 @@
 import { asc, eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { organisations, portfolioShares } from '~~/server/db/schema'
+import { findReadablePortfolio } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)

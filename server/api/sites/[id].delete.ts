@@ -2,6 +2,7 @@
 import { count, eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { siteStructures, sites, tanks } from '~~/server/db/schema'
+import { findEditableSite } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

@@ -3,6 +3,7 @@ import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { sites } from '~~/server/db/schema'
 import { siteSchema } from '~~/shared/schemas/inventory'
+import { SITE_UNIQUE, findEditableSite, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

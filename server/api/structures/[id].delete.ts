@@ -2,6 +2,7 @@
 import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { siteStructures } from '~~/server/db/schema'
+import { findEditableStructure } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

@@ -3,6 +3,7 @@ import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { siteStructures } from '~~/server/db/schema'
 import { structureSchema } from '~~/shared/schemas/inventory'
+import { STRUCTURE_UNIQUE, findEditableStructure, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

@@ -2,6 +2,7 @@
 import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { tanks } from '~~/server/db/schema'
+import { findEditableTank } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

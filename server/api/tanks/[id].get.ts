@@ -1,6 +1,7 @@
 // GET /api/tanks/:id — one tank with its components and the site it stands on.
 import { useDb } from '~~/server/db'
 import { tanksWithComponents } from '~~/server/inventory/queries'
+import { findReadableTank } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)

@@ -3,6 +3,7 @@ import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { tankComponents, tanks } from '~~/server/db/schema'
 import { tankSchema } from '~~/shared/schemas/inventory'
+import { TANK_UNIQUE, findEditableTank, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

@@ -3,6 +3,7 @@ import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { organisations, portfolioShares } from '~~/server/db/schema'
 import { portfolioShareSchema } from '~~/shared/schemas/inventory'
+import { findEditablePortfolio } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })

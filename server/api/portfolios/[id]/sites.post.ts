@@ -3,6 +3,7 @@ import { and, eq, inArray } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { portfolioSites, sites } from '~~/server/db/schema'
 import { portfolioSitesSchema } from '~~/shared/schemas/inventory'
+import { findEditablePortfolio } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

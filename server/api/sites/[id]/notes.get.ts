@@ -2,6 +2,7 @@
 import { and, desc, eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { siteNotes, users } from '~~/server/db/schema'
+import { findReadableSite } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)

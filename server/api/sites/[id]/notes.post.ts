@@ -2,6 +2,7 @@
 import { siteNoteSchema } from '~~/shared/schemas/notes'
 import { useDb } from '~~/server/db'
 import { siteNotes } from '~~/server/db/schema'
+import { findReadableSite } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })

@@ -2,6 +2,7 @@
 import { useDb } from '~~/server/db'
 import { siteStructures } from '~~/server/db/schema'
 import { structureSchema } from '~~/shared/schemas/inventory'
+import { STRUCTURE_UNIQUE, findEditableSite, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

@@ -2,6 +2,7 @@
 import { useDb } from '~~/server/db'
 import { tankComponents, tanks } from '~~/server/db/schema'
 import { tankSchema } from '~~/shared/schemas/inventory'
+import { TANK_UNIQUE, findEditableSite, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

@@ -2,6 +2,7 @@
 import { useDb } from '~~/server/db'
 import { planDetail } from '~~/server/capital/plan-detail'
 import { writePlanWorkbook } from '~~/server/capital/workbook'
+import { setDownloadHeaders, fileDate } from '~~/server/utils/downloads'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
@@ -10,9 +11,6 @@ export default defineEventHandler(async (event) => {
   if (!detail) notFound('Plan')
   const body = await writePlanWorkbook(detail, member.currency)
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'capital_plan', entityId: id, after: { actions: detail.actions.length } }, { event })
-  setResponseHeaders(event, {
-    'content-type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-    'content-disposition': `attachment; filename="stormledger-capital-plan-${new Date().toISOString().slice(0, 10)}.xlsx"`,
-  })
+  setDownloadHeaders(event, `stormledger-capital-plan-${fileDate()}.xlsx`)
   return body
 })

@@ -1,6 +1,7 @@
 // POST /api/inventory/imports/:id/commit — write a previewed import in one transaction, or nothing
 // ({ portfolioId } optionally adds every site of the file to one of the organisation's portfolios).
 import { z } from 'zod'
+import { commitImport } from '~~/server/inventory/uploads'
 
 const body = z.object({ portfolioId: z.uuid().nullable().default(null) })
 

@@ -2,6 +2,7 @@
 import { and, eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { portfolioShares } from '~~/server/db/schema'
+import { findEditablePortfolio } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })

@@ -1,12 +1,14 @@
 // The import service behind the import routes: read → validate → compare (preview, stored with the
 // original file) and commit (all or nothing, in one transaction).
 import { and, eq } from 'drizzle-orm'
-import type { H3Event } from 'h3'
+import { createError, type H3Event } from 'h3'
 import { useDb } from '../db'
 import { inventoryImports, portfolios } from '../db/schema'
-import { applyImport, planImport, type ImportPlan } from '../inventory/import'
-import { parseOnThread } from '../inventory/parse-pool'
-import type { Member } from './auth'
+import { applyImport, planImport, type ImportPlan } from './import'
+import { parseOnThread } from './parse-pool'
+import type { Member } from '../utils/auth'
+import { conflict, fail, notFound } from '../utils/errors'
+import { recordAudit } from '../utils/audit'
 
 const MAX_STORED_ERRORS = 1000
 

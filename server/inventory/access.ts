@@ -4,7 +4,8 @@
 import { and, eq, inArray, or, type SQL } from 'drizzle-orm'
 import { useDb } from '../db'
 import { organisations, portfolioShares, portfolioSites, portfolios, siteStructures, sites, tanks } from '../db/schema'
-import type { Member } from './auth'
+import type { Member } from '../utils/auth'
+import { conflict, forbidden, notFound } from '../utils/errors'
 
 const READ_ONLY = 'This inventory is shared with your organisation read-only; it can only be changed by the organisation that owns it.'
 

@@ -2,11 +2,19 @@
 // Accepting creates the account (name and password) or, with that person's consent (signed in, or
 // their password), adds the membership to an existing one.
 import { and, desc, eq, isNull } from 'drizzle-orm'
-import type { H3Event } from 'h3'
+import { createError, type H3Event } from 'h3'
 import { useDb } from '../db'
 import { invitations, memberships, organisations, users } from '../db/schema'
 import { invitationMail } from '../mail/templates'
-import type { Member } from './auth'
+import type { Member } from '../utils/auth'
+import { conflict, fail, fieldProblem, notFound } from '../utils/errors'
+import { recordAudit } from '../utils/audit'
+import { appLink, queueMail } from '../utils/mail'
+import { memberOfSession, startMemberSession } from '../utils/auth'
+import { clientAddress } from '../utils/client-address'
+import { INVITATION_LIFETIME_MS, hashToken, newToken } from './tokens'
+import { assertSignInAllowed, recordSignInAttempt } from './sign-in-throttle'
+import { assertPasswordAllowed, checkPassword } from './passwords'
 
 type Invitation = typeof invitations.$inferSelect
 export type InvitationStatus = 'pending' | 'accepted' | 'revoked' | 'expired'

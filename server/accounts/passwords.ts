@@ -1,5 +1,6 @@
 // Password checks inside Nitro (hashPassword / verifyPassword come from nuxt-auth-utils).
 import { passwordProblem } from '../../shared/schemas/auth'
+import { fieldProblem } from '../utils/errors'
 
 let dummyHash: Promise<string> | undefined
 
