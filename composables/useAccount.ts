@@ -1,7 +1,7 @@
 // The signed-in person, their organisation and role, as the frame shows them; and the account actions.
 import { passwordProblem } from '~~/shared/schemas/auth'
 import { roleLabels } from '~~/shared/roles'
-import { inWords } from '~~/shared/schemas/messages'
+import { fieldMessages, inWords } from '~~/shared/schemas/messages'
 
 export function useAccount() {
   const { session, user, loggedIn, fetch, clear } = useUserSession()
@@ -51,12 +51,7 @@ type ParseParams = { error: typeof inWords }
 export function validateForm<T>(schema: { safeParse: (v: unknown, params?: ParseParams) => { success: true, data: T } | { success: false, error: { issues: { path: PropertyKey[], message: string }[] } } }, values: unknown): { data?: T, errors: Record<string, string> } {
   const result = schema.safeParse(values, { error: inWords })
   if (result.success) return { data: result.data, errors: {} }
-  const errors: Record<string, string> = {}
-  for (const issue of result.error.issues) {
-    const key = issue.path.map(String).join('.')
-    errors[key] ??= issue.message
-  }
-  return { errors }
+  return { errors: fieldMessages(result.error.issues) }
 }
 
 /** Clears a field's message as soon as the person edits that field. */

@@ -2,7 +2,7 @@
 // dotted field path, and the server's field messages (400 with data.fields, read by fieldErrors) shown
 // in the same places.
 import type { z } from 'zod'
-import { inWords } from '~~/shared/schemas/messages'
+import { fieldMessages, inWords } from '~~/shared/schemas/messages'
 
 export function useSchemaForm<T extends z.ZodType>(schema: T) {
   const errors = ref<Record<string, string>>({})
@@ -14,7 +14,7 @@ export function useSchemaForm<T extends z.ZodType>(schema: T) {
     errors.value = {}
     formError.value = ''
     if (parsed.success) return parsed.data
-    for (const issue of parsed.error.issues) errors.value[issue.path.join('.')] ??= issue.message
+    errors.value = fieldMessages(parsed.error.issues)
     formError.value = 'Some fields need attention; see the messages beside them.'
     return null
   }

@@ -10,7 +10,8 @@ import { closeDb, useDb } from '../server/db/index'
 import { assumptionSets, assumptionSetVersions, organisations, portfolios } from '../server/db/schema'
 import { stopBoss } from '../server/jobs/queue'
 import { getRun } from '../server/runs/queries'
-import { RunStartError, startRun } from '../server/runs/start'
+import { startRun } from '../server/runs/start'
+import { AppError } from '../server/utils/errors'
 
 class UsageError extends Error {}
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i
@@ -95,7 +96,7 @@ async function main() {
 }
 
 main().catch((error) => {
-  if (error instanceof UsageError || error instanceof RunStartError) console.error(`simulate: ${error.message}`)
+  if (error instanceof UsageError || error instanceof AppError) console.error(`simulate: ${error.message}`)
   else console.error(`simulate failed: ${(error as Error).stack ?? error}`)
   process.exitCode = 1
 }).finally(async () => {

@@ -1,5 +1,7 @@
 // The sections of the left rail (SCREENS.md "Frame") and which roles see each.
-export type RoleName = 'admin' | 'analyst' | 'underwriter' | 'asset_manager' | 'viewer'
+import { EDITOR_ROLES, type RoleName } from './roles'
+
+export type { RoleName }
 
 export interface NavSection {
   label: string
@@ -17,7 +19,7 @@ export const navSections: NavSection[] = [
   // Terms editing is the underwriters' workspace; every role reads a run's financial view from the run.
   { label: 'Insurance', to: '/insurance', roles: ['admin', 'underwriter'] },
   { label: 'Capital plan', to: '/capital-plan', roles: ['admin', 'analyst', 'asset_manager', 'underwriter', 'viewer'] },
-  { label: 'Calibration', to: '/calibration', roles: ['admin', 'analyst'] },
+  { label: 'Calibration', to: '/calibration', roles: [...EDITOR_ROLES] },
   { label: 'Admin', to: '/admin', roles: ['admin'] },
 ]
 

@@ -1,10 +1,10 @@
 // What each role may do, in one table the screens ask ("may this role do X?"). It mirrors the role
 // groups the routes check (ROLES in server/utils/auth.ts) and the role table in README.md; the server
 // decides every request on its own, this only shapes what a page offers.
-import type { RoleName } from './navigation'
+import { EDITOR_ROLES, ROLE_NAMES, type RoleName } from './roles'
 
-const EVERYONE: readonly RoleName[] = ['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer']
-const EDITORS: readonly RoleName[] = ['admin', 'analyst']
+const EVERYONE: readonly RoleName[] = ROLE_NAMES
+const EDITORS: readonly RoleName[] = EDITOR_ROLES
 
 export const PERMISSIONS = {
   /** Workbooks and spreadsheets: every role but viewer (ROLES.exporters). */

@@ -1,7 +1,17 @@
 // The five roles and four kinds of organisation, with the words people read (PRODUCT.md "Users and roles").
-import type { RoleName } from './navigation'
+// The one list of roles: the database enum (server/db/schema/accounts.ts), the guard's role groups
+// (ROLES in server/utils/auth.ts), the zod schemas and the pickers all read ROLE_NAMES.
 
-export const ROLE_NAMES: RoleName[] = ['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer']
+export const ROLE_NAMES = ['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer'] as const
+export type RoleName = (typeof ROLE_NAMES)[number]
+
+/** Admins and analysts: they change the inventory, assumptions and calibrations and start runs. */
+export const EDITOR_ROLES = ['admin', 'analyst'] as const satisfies readonly RoleName[]
+
+/** Whether a role (or none) is one of `roles`. */
+export function roleIn(roles: readonly RoleName[], role: string | null | undefined): boolean {
+  return (roles as readonly string[]).includes(role ?? '')
+}
 
 export const roleLabels: Record<RoleName, string> = {
   admin: 'Admin',

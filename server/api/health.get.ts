@@ -2,6 +2,7 @@
 import journal from '~~/drizzle/meta/_journal.json'
 import pkg from '~~/package.json'
 import { usePool } from '~~/server/db'
+import { checkHealth } from '~~/server/db/health'
 
 export default defineEventHandler(async (event) => {
   const report = await checkHealth(usePool(), pkg.version, journal.entries.map(e => e.tag))

@@ -115,7 +115,7 @@ export async function applyToAssumptions(member: Member, event: H3Event, calibra
       return { version: { id: version.id, version: version.version, setId: base.set.id, setName: base.set.name }, values, provenance }
     })
   } catch (error) {
-    if (error instanceof EngineInputError) badRequest(`The calibrated values do not make a valid assumption set: ${error.issues.join('; ')}`)
+    if (error instanceof EngineInputError) badRequest(`The calibrated values do not make a valid assumption set: ${error.issues.join('; ')}`, error.fields)
     throw error
   }
 }

@@ -4,7 +4,7 @@ import { createError, type H3Event } from 'h3'
 import { createHash } from 'node:crypto'
 import { and, eq } from 'drizzle-orm'
 import {
-  analyseSite, CalibrationInputError, currentFitCurves, empiricalExceedance, poolCurrents, tryFit, type CurrentSample, type SiteLightningResult,
+  analyseSite, currentFitCurves, empiricalExceedance, poolCurrents, tryFit, type CurrentSample, type SiteLightningResult,
 } from '../../shared/calibration'
 import type { LightningCalibrationInput } from '../../shared/schemas/calibration'
 import { useDb } from '../db'
@@ -56,15 +56,11 @@ export async function runLightningCalibration(member: Member, event: H3Event, in
   const options = { radiusKm: input.radiusKm, periodYears, detectionEfficiency: input.detectionEfficiency, thresholdKa: input.thresholdKa, recordsAre: input.recordsAre }
   const currents: CurrentSample[][] = []
   const siteRows: LightningSiteRow[] = []
-  try {
-    for (const site of sites) {
-      const { result, currents: c } = analyseSite(site.id, perSite.get(site.id) ?? [], options)
-      currents.push(c)
-      siteRows.push({ ...result, externalId: site.externalId, name: site.name, latDeg: site.latDeg, lonDeg: site.lonDeg, previousFlashDensity: site.flashDensity })
-    }
-  } catch (error) {
-    if (error instanceof CalibrationInputError) badRequest(error.message)
-    throw error
+  // A CalibrationInputError answers 400 with its message (server/plugins/errors.ts).
+  for (const site of sites) {
+    const { result, currents: c } = analyseSite(site.id, perSite.get(site.id) ?? [], options)
+    currents.push(c)
+    siteRows.push({ ...result, externalId: site.externalId, name: site.name, latDeg: site.latDeg, lonDeg: site.lonDeg, previousFlashDensity: site.flashDensity })
   }
   const pooledCurrents = poolCurrents(currents)
   const pooled = tryFit(pooledCurrents, input.thresholdKa)

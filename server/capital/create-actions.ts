@@ -8,12 +8,9 @@ import type { createActionsSchema } from '../../shared/schemas/capital'
 import type { Database } from '../db'
 import { capitalActions, mitigationOptions, sites, tankComponents, tanks } from '../db/schema'
 import { optionEffect, type OptionRow } from './catalogue'
+import { AppError } from '../utils/errors'
 
 export type CreateActions = z.output<typeof createActionsSchema>
-
-export class ActionInputError extends Error {
-  constructor(readonly statusCode: 400 | 404 | 409, message: string) { super(message) }
-}
 
 /** The tank measures a cost rule needs. */
 type CostTank = Pick<TankInput, 'diameterM' | 'heightM' | 'components'>
@@ -31,12 +28,12 @@ export function priceAction(option: OptionRow, tank: CostTank | null): number {
 
 export async function createActions(tx: Database, organisationId: string, userId: string, input: CreateActions) {
   const [option] = await tx.select().from(mitigationOptions).where(and(eq(mitigationOptions.id, input.optionId), eq(mitigationOptions.organisationId, organisationId)))
-  if (!option) throw new ActionInputError(404, 'Option not found.')
-  if (option.archivedAt) throw new ActionInputError(409, `The option "${option.name}" is archived. Restore it in the catalogue to add actions with it.`)
+  if (!option) throw new AppError(404, 'Option not found.')
+  if (option.archivedAt) throw new AppError(409, `The option "${option.name}" is archived. Restore it in the catalogue to add actions with it.`)
   if (option.kind === 'mast') {
-    if (!input.siteId || input.mastXM === undefined || input.mastYM === undefined) throw new ActionInputError(400, 'A mast needs a site and its position (x and y in m).')
+    if (!input.siteId || input.mastXM === undefined || input.mastYM === undefined) throw new AppError(400, 'A mast needs a site and its position (x and y in m).')
     const [site] = await tx.select({ id: sites.id }).from(sites).where(and(eq(sites.id, input.siteId), eq(sites.organisationId, organisationId)))
-    if (!site) throw new ActionInputError(404, 'Site not found.')
+    if (!site) throw new AppError(404, 'Site not found.')
     return tx.insert(capitalActions).values({ organisationId, optionId: option.id, siteId: site.id, tankId: null, mastXM: input.mastXM, mastYM: input.mastYM, cost: priceAction(option, null), note: input.note, createdBy: userId }).returning()
   }
   const conditions: SQL[] = [eq(sites.organisationId, organisationId)]
@@ -48,7 +45,7 @@ export async function createActions(tx: Database, organisationId: string, userId
   const matching = await tx.select({ id: tanks.id, siteId: tanks.siteId, heightM: tanks.heightM }).from(tanks).innerJoin(sites, eq(sites.id, tanks.siteId)).where(and(...conditions))
   // "taller than 5 m" is strict; the query's ≥ keeps the index-friendly form, the strictness is applied here.
   const chosen = input.filter?.minHeightM !== undefined ? matching.filter(t => t.heightM > input.filter!.minHeightM!) : matching
-  if (input.tankIds && chosen.length !== new Set(input.tankIds).size) throw new ActionInputError(404, 'Tank not found.')
+  if (input.tankIds && chosen.length !== new Set(input.tankIds).size) throw new AppError(404, 'Tank not found.')
   if (chosen.length === 0) return []
   const measures = await costTanks(tx, chosen.map(t => t.id))
   return tx.insert(capitalActions).values(chosen.map(t => ({

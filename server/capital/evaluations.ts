@@ -14,10 +14,7 @@ import { computeScenariosOnThread } from './threads'
 import { listActions } from './catalogue'
 import type { ScenarioSpec } from './scenario-task'
 import { recordAudit } from '../utils/audit'
-
-export class EvaluationStartError extends Error {
-  constructor(readonly statusCode: 400 | 404 | 409, message: string) { super(message) }
-}
+import { AppError } from '../utils/errors'
 
 export interface StartEvaluation { assumptionVersionId: string, seed?: number, samplesPerTank: number, planId?: string }
 
@@ -29,16 +26,16 @@ export async function startEvaluation(input: StartEvaluation, by: { userId: stri
   const [version] = await db.select({ v: assumptionSetVersions, setName: assumptionSets.name, archivedAt: assumptionSets.archivedAt }).from(assumptionSetVersions)
     .innerJoin(assumptionSets, eq(assumptionSets.id, assumptionSetVersions.assumptionSetId))
     .where(and(eq(assumptionSetVersions.id, input.assumptionVersionId), eq(assumptionSets.organisationId, by.organisationId)))
-  if (!version) throw new EvaluationStartError(404, 'Assumption-set version not found.')
-  if (version.archivedAt) throw new EvaluationStartError(409, `The assumption set "${version.setName}" is archived. Restore it or choose another set.`)
+  if (!version) throw new AppError(404, 'Assumption-set version not found.')
+  if (version.archivedAt) throw new AppError(409, `The assumption set "${version.setName}" is archived. Restore it or choose another set.`)
   let actionIds: string[] | undefined
   if (input.planId) {
     const [plan] = await db.select().from(capitalPlans).where(and(eq(capitalPlans.id, input.planId), eq(capitalPlans.organisationId, by.organisationId)))
-    if (!plan) throw new EvaluationStartError(404, 'Plan not found.')
+    if (!plan) throw new AppError(404, 'Plan not found.')
     actionIds = plan.actionIds
   }
   const actions = await listActions(db, by.organisationId, actionIds)
-  if (actions.length === 0) throw new EvaluationStartError(400, 'There are no candidate actions to evaluate. Add actions first.')
+  if (actions.length === 0) throw new AppError(400, 'There are no candidate actions to evaluate. Add actions first.')
   const assumptions = parseAssumptions(version.v.parameters)
   const siteIds = [...new Set(actions.map(a => a.siteId))]
   const siteRows = await db.select().from(sites).where(and(eq(sites.organisationId, by.organisationId), inArray(sites.id, siteIds)))

@@ -5,6 +5,7 @@ import { CAUTION_FULL } from '../../shared/caution'
 import { neutraliseFormula } from '../../shared/csv'
 import { MITIGATION_LABELS, NO_EFFECT_REASON, hasModelEffect } from '../../shared/capital/actions'
 import type { planDetail } from './plan-detail'
+import { workbookBytes } from '../utils/downloads'
 
 type Detail = NonNullable<Awaited<ReturnType<typeof planDetail>>>
 
@@ -61,5 +62,5 @@ export async function writePlanWorkbook(detail: Detail, currency: string): Promi
   const caution = wb.addWorksheet('Caution')
   caution.getColumn(1).width = 120
   caution.getCell(1, 1).value = CAUTION_FULL
-  return Buffer.from(await wb.xlsx.writeBuffer())
+  return workbookBytes(wb)
 }

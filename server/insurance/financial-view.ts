@@ -16,10 +16,7 @@ import { NO_TERMS } from '../../shared/insurance/terms'
 import { tankSeverity } from '../../shared/engine/ignition'
 import type { TankInput } from '../../shared/engine/types'
 import { findTermsVersion, layersOf, runTermsVersionId, termsBySite } from './terms-store'
-
-export class FinancialViewError extends Error {
-  constructor(readonly statusCode: 400 | 404, message: string) { super(message) }
-}
+import { AppError } from '../utils/errors'
 
 export interface FinancialInputs {
   run: typeof runs.$inferSelect
@@ -54,8 +51,8 @@ export async function loadFinancialInputs(organisationId: string, runId: string,
     .innerJoin(assumptionSetVersions, eq(assumptionSetVersions.id, runs.assumptionVersionId))
     .innerJoin(assumptionSets, eq(assumptionSets.id, assumptionSetVersions.assumptionSetId))
     .where(and(eq(runs.id, runId), eq(runs.organisationId, organisationId), eq(runs.state, 'succeeded')))
-  if (!row) throw new FinancialViewError(404, 'Results of this run not found.')
-  if (row.run.mode !== 'year') throw new FinancialViewError(400, 'The financial view needs a simulated-years run: a frequency run keeps no loss events. Start a run in simulated-years mode.')
+  if (!row) throw new AppError(404, 'Results of this run not found.')
+  if (row.run.mode !== 'year') throw new AppError(400, 'The financial view needs a simulated-years run: a frequency run keeps no loss events. Start a run in simulated-years mode.')
   const recorded = await runTermsVersionId(db, runId)
   const chosen = termsVersionId ?? recorded
   let terms: FinancialInputs['terms'] = null
@@ -63,7 +60,7 @@ export async function loadFinancialInputs(organisationId: string, runId: string,
   let layers: PortfolioLayer[] = []
   if (chosen) {
     const version = await findTermsVersion(db, organisationId, chosen)
-    if (!version) throw new FinancialViewError(404, 'Terms version not found.')
+    if (!version) throw new AppError(404, 'Terms version not found.')
     terms = { versionId: version.version.id, setId: version.set.id, setName: version.set.name, version: version.version.version, recordedByRun: chosen === recorded }
     bySite = await termsBySite(db, chosen)
     layers = await layersOf(db, chosen)
@@ -142,14 +139,14 @@ export function hasWhatIf(q: FinancialQuery) {
 /** The whole view: baseline with the chosen terms, and the what-if when one is asked for. */
 export function financialView(inputs: FinancialInputs, q: FinancialQuery) {
   const pricing = pricingOf(q)
-  if (q.whatIfSiteId && !inputs.sites.some(s => s.siteId === q.whatIfSiteId)) throw new FinancialViewError(400, 'The what-if site is not part of this run.')
+  if (q.whatIfSiteId && !inputs.sites.some(s => s.siteId === q.whatIfSiteId)) throw new AppError(400, 'The what-if site is not part of this run.')
   let baseline: PortfolioFinancials
   let changed: PortfolioFinancials | null = null
   try {
     baseline = computeFinancials(inputs.sites, inputs.run.years, pricing, 50, inputs.layers)
     if (hasWhatIf(q)) changed = computeFinancials(withChangedDeductibles(inputs.sites, q), inputs.run.years, pricing, 50, inputs.layers)
   } catch (error) {
-    if (error instanceof RangeError) throw new FinancialViewError(400, `${error.message[0]!.toUpperCase()}${error.message.slice(1)}.`)
+    if (error instanceof RangeError) throw new AppError(400, `${error.message[0]!.toUpperCase()}${error.message.slice(1)}.`)
     throw error
   }
   const run = inputs.run

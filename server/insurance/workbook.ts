@@ -7,6 +7,7 @@ import { CAUTION_TEXT } from '../../shared/caution'
 import { neutraliseFormula } from '../../shared/csv'
 import { riskLoadLabels } from '../../shared/insurance/pricing'
 import type { FinancialView } from './financial-view'
+import { workbookBytes } from '../utils/downloads'
 
 export interface WorkbookContext { currency: string, exportedBy: string, exportedAt: Date }
 
@@ -111,5 +112,5 @@ export async function writeFinancialWorkbook(view: FinancialView, ctx: WorkbookC
     largest.addRow([text(e.siteName), e.year + 1, e.groundUp, e.groundUpPd, e.groundUp - e.groundUpPd, e.afterTerms, e.insured, e.valueAtRisk,
       text(e.tanks.map(t => t.bySpread ? `${t.tag} (spread)` : t.tag).join(', '))])
   }
-  return Buffer.from(await workbook.xlsx.writeBuffer())
+  return workbookBytes(workbook)
 }

@@ -8,6 +8,7 @@ import { fileURLToPath } from 'node:url'
 import { Piscina } from 'piscina'
 import { settings } from '../settings'
 import type { ParseOutcome, ParseTask } from './parse-upload'
+import { AppError } from '../utils/errors'
 
 export const UPLOAD_THREAD_LIMITS = {
   /** V8 old-generation heap per upload thread, MB. */
@@ -40,24 +41,19 @@ function usePool(): Piscina {
   return pool
 }
 
-/** Why a thread could not read the file, in words, with the status to answer. */
-export class UploadReadError extends Error {
-  constructor(message: string, readonly status: 413 | 503 | 400) { super(message) }
-}
-
 export async function parseOnThread(task: ParseTask): Promise<ParseOutcome> {
   try {
     return await usePool().run(task, { signal: AbortSignal.timeout(UPLOAD_THREAD_LIMITS.timeoutMs) }) as ParseOutcome
   } catch (error) {
     const e = error as { code?: string, name?: string, message?: string }
     if (e.code === 'ERR_WORKER_OUT_OF_MEMORY') {
-      throw new UploadReadError(`The file needs more than ${UPLOAD_THREAD_LIMITS.heapMb} MB of memory to read, the limit for one upload. Split it into several files.`, 413)
+      throw new AppError(413, `The file needs more than ${UPLOAD_THREAD_LIMITS.heapMb} MB of memory to read, the limit for one upload. Split it into several files.`)
     }
     if (e.name === 'AbortError' || e.name === 'TimeoutError') {
-      throw new UploadReadError(`The file took longer than ${UPLOAD_THREAD_LIMITS.timeoutMs / 1000} s to read, the limit for one upload. Split it into several files.`, 413)
+      throw new AppError(413, `The file took longer than ${UPLOAD_THREAD_LIMITS.timeoutMs / 1000} s to read, the limit for one upload. Split it into several files.`)
     }
     if (/queue is at limit/i.test(e.message ?? '')) {
-      throw new UploadReadError('Several uploads are being read already. Try again in a minute.', 503)
+      throw new AppError(503, 'Several uploads are being read already. Try again in a minute.')
     }
     throw error
   }

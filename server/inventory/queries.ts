@@ -4,6 +4,7 @@ import { and, asc, desc, eq, ilike, inArray, or, sql, type SQL } from 'drizzle-o
 import type { Database } from '../db'
 import { organisations, portfolioSites, portfolios, siteStructures, sites, tankComponents, tanks } from '../db/schema'
 import type { SiteListQuery } from '../../shared/schemas/inventory'
+import { pageWindow } from '../db/pagination'
 
 // Written out in full: Drizzle leaves columns unqualified in a single-table select, which would bind to the inner table.
 const tankCount = sql<number>`(SELECT count(*)::int FROM tanks t WHERE t.site_id = "sites"."id")`
@@ -28,6 +29,7 @@ export async function listSites(db: Database, organisationId: string, readable: 
   if (query.operator) filters.push(eq(sites.operatorName, query.operator))
   if (query.portfolioId) filters.push(inArray(sites.id, db.select({ id: portfolioSites.siteId }).from(portfolioSites).where(eq(portfolioSites.portfolioId, query.portfolioId))))
   const where = and(...filters)
+  const window = pageWindow(query)
   const order = query.dir === 'desc' ? desc(SORT_COLUMNS[query.sort]) : asc(SORT_COLUMNS[query.sort])
   const [items, totals, operators] = await Promise.all([
     db.select({
@@ -35,7 +37,7 @@ export async function listSites(db: Database, organisationId: string, readable: 
       latitudeDeg: sites.latitudeDeg, longitudeDeg: sites.longitudeDeg,
       flashDensityPerKm2Yr: sites.flashDensityPerKm2Yr, thunderstormDaysPerYr: sites.thunderstormDaysPerYr,
       tankCount, structureCount, organisationId: sites.organisationId, updatedAt: sites.updatedAt,
-    }).from(sites).where(where).orderBy(order, asc(sites.id)).limit(query.pageSize).offset((query.page - 1) * query.pageSize),
+    }).from(sites).where(where).orderBy(order, asc(sites.id)).limit(window.limit).offset(window.offset),
     db.select({ total: sql<number>`count(*)::int` }).from(sites).where(where) as Promise<{ total: number }[]>,
     db.selectDistinct({ operatorName: sites.operatorName }).from(sites).where(readable).orderBy(asc(sites.operatorName)),
   ])

@@ -4,6 +4,7 @@
 import ExcelJS from 'exceljs'
 import { neutraliseFormula } from '../../shared/csv'
 import { MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, SHEET_COLUMNS, SHEET_NAMES, type ColumnSpec, type SheetName } from '../../shared/inventory-layout'
+import { workbookBytes } from '../utils/downloads'
 
 /** A problem with the file as a whole: nothing in it is looked at further. `status` 413 for files too large to read. */
 export class ImportFileError extends Error {
@@ -261,6 +262,5 @@ export async function writeInventoryWorkbook(rows: SheetRows = { Sites: [], Tank
   lines.forEach((l, i) => { readMe.getCell(i + 1, 1).value = l })
   readMe.getCell(1, 1).font = { bold: true, size: 14 }
   for (const name of SHEET_NAMES) addSheet(workbook, name, rows[name])
-  const out = await workbook.xlsx.writeBuffer()
-  return Buffer.from(out as ArrayBuffer)
+  return workbookBytes(workbook)
 }

@@ -5,6 +5,7 @@
 // Whenever a session cookie is cleared (sign-out, nuxt-auth-utils' own DELETE /api/_auth/session, an
 // ended session), its record is revoked too, so a copy of the cookie stops working.
 import { settings } from '../settings'
+import { revokeSession } from '~~/server/accounts/sessions'
 
 export default defineNitroPlugin(() => {
   sessionHooks.hook('clear', async (session) => {

@@ -9,6 +9,7 @@ import { getPath } from '../../shared/paths'
 import { formatMoneyRange, formatRange, formatUpperBound } from '../../shared/format'
 import type { runPortfolioResults, runs, runTankResults } from '../db/schema'
 import type { siteResults, StoredYearSummary } from './queries'
+import { workbookBytes } from '../utils/downloads'
 
 const text = (v: string | null | undefined) => (v ? neutraliseFormula(v) : '')
 const FREQ = '0.000E+00'
@@ -138,5 +139,5 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
     return { label: m.label, value: Array.isArray(v) ? v.join(' ') : (v as string | number | null) ?? '', unit: m.unit, source: m.source }
   }))
 
-  return Buffer.from(await wb.xlsx.writeBuffer())
+  return workbookBytes(wb)
 }

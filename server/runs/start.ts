@@ -11,29 +11,26 @@ import { assumptionSets, assumptionSetVersions, runChunks, runs, runSiteSnapshot
 import { withClientTransaction } from '../db/transaction'
 import { queueOptions, useBoss } from '../jobs/queue'
 import { recordAudit } from '../utils/audit'
+import { AppError } from '../utils/errors'
 import { recordRunTerms } from '../insurance/terms-store'
 import { readablePortfolio } from '../inventory/portfolio-access'
 import { inputHash, loadPortfolioSites } from './snapshot'
 
 export type StartRun = z.output<typeof startRunSchema>
 
-export class RunStartError extends Error {
-  constructor(readonly statusCode: 400 | 404 | 409, message: string) { super(message) }
-}
-
 export async function startRun(input: StartRun, by: { userId: string | null, organisationId: string }, options: { retryOf?: string } = {}) {
   const db = useDb()
   const readable = await readablePortfolio(by.organisationId, input.portfolioId)
-  if (!readable) throw new RunStartError(404, 'Portfolio not found.')
+  if (!readable) throw new AppError(404, 'Portfolio not found.')
   const portfolio = readable.portfolio
   const [version] = await db.select({ v: assumptionSetVersions, setName: assumptionSets.name, archivedAt: assumptionSets.archivedAt }).from(assumptionSetVersions)
     .innerJoin(assumptionSets, eq(assumptionSets.id, assumptionSetVersions.assumptionSetId))
     .where(and(eq(assumptionSetVersions.id, input.assumptionVersionId), eq(assumptionSets.organisationId, by.organisationId)))
-  if (!version) throw new RunStartError(404, 'Assumption-set version not found.')
-  if (version.archivedAt) throw new RunStartError(409, `The assumption set "${version.setName}" is archived. Restore it (Assumptions → Show archived) or choose another set.`)
+  if (!version) throw new AppError(404, 'Assumption-set version not found.')
+  if (version.archivedAt) throw new AppError(409, `The assumption set "${version.setName}" is archived. Restore it (Assumptions → Show archived) or choose another set.`)
   const assumptions = parseAssumptions(version.v.parameters)
   const snapshot = await loadPortfolioSites(db, portfolio.id, assumptions)
-  if (snapshot.length === 0) throw new RunStartError(400, `Portfolio "${portfolio.name}" has no sites to simulate. Add sites first.`)
+  if (snapshot.length === 0) throw new AppError(400, `Portfolio "${portfolio.name}" has no sites to simulate. Add sites first.`)
 
   const seed = input.seed ?? randomInt(0, 2 ** 31)
   const hash = inputHash({

@@ -4,7 +4,8 @@ import type { H3Event } from 'h3'
 import type { UserSession } from '#auth-utils'
 import { useDb } from '../db'
 import { memberships, organisations, userSessions, users, type OrganisationKind, type Role } from '../db/schema'
-import { openSessionRecord, revokeSession, sessionStartCutoff, touchSession } from './sessions'
+import { EDITOR_ROLES, ROLE_NAMES } from '../../shared/roles'
+import { openSessionRecord, revokeSession, sessionStartCutoff, touchSession } from '../accounts/sessions'
 
 export interface Member {
   user: { id: string, email: string, name: string }
@@ -19,8 +20,8 @@ export interface Member {
 
 /** Role groups used across routes (PRODUCT.md "Users and roles"). */
 export const ROLES = {
-  everyone: ['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer'],
-  editors: ['admin', 'analyst'],
+  everyone: ROLE_NAMES,
+  editors: EDITOR_ROLES,
   admins: ['admin'],
   planners: ['admin', 'asset_manager'],
   exporters: ['admin', 'analyst', 'underwriter', 'asset_manager'],

@@ -3,7 +3,7 @@
 // with `data.fields`; a body that is not JSON says so; text holding a NUL character (which
 // PostgreSQL cannot store) is refused before it reaches a query; an oversized body answers 413.
 import type { H3Event } from 'h3'
-import type { z } from 'zod'
+import { z } from 'zod'
 import { inWords } from '~~/shared/schemas/messages'
 
 /** The largest JSON body a route reads (a terms version of 50,000 sites fits). */
@@ -26,7 +26,7 @@ export function validateInput<T extends z.ZodType>(schema: T, value: unknown): z
   const nul = findNul(value)
   if (nul) {
     const where = nul.length ? ` from ${nul.join('.').slice(0, 100)}` : ''
-    badRequest(`Remove the NUL character (\\0)${where}: text may not contain it.`, nul.length ? { fields: { [nul.join('.')]: 'Remove the NUL character (\\0).' } } : undefined)
+    badRequest(`Remove the NUL character (\\0)${where}: text may not contain it.`, nul.length ? { [nul.join('.')]: 'Remove the NUL character (\\0).' } : undefined)
   }
   const parsed = schema.safeParse(value, { error: inWords })
   if (!parsed.success) invalidInput(parsed.error)
@@ -55,6 +55,18 @@ export function readValidQuery<T extends z.ZodType>(event: H3Event, schema: T): 
   return validateInput(schema, getQuery(event))
 }
 
+/**
+ * The one id reader: the route's `name` parameter (default `id`) as a uuid. A malformed id names no
+ * row, so it answers like an id that matches nothing (or another organisation's row): 404
+ * "<what> not found.".
+ */
+export function readId(event: H3Event, what: string, name = 'id'): string {
+  const parsed = z.uuid().safeParse(getRouterParam(event, name, { decode: true }))
+  if (!parsed.success) notFound(what)
+  return parsed.data
+}
+
+/** Route parameters that are not ids (e-mailed tokens), checked with their schema. */
 export function readValidParams<T extends z.ZodType>(event: H3Event, schema: T): z.output<T> {
   return validateInput(schema, getRouterParams(event, { decode: true }))
 }

@@ -5,6 +5,7 @@ import type { AttachmentModel, ComponentClass, Contents } from './types'
 import type { FlashDensityFormula } from './flash-density'
 import { SPEED_OF_LIGHT_M_PER_S } from './induction'
 import type { DamageRatio, FireSpread, LossComponent } from './loss'
+import { fieldMessages, type FieldMessages } from '../schemas/messages'
 
 export type CurrentLawKind = 'power_law' | 'lognormal' | 'empirical'
 export type SparkContents = Exclude<Contents, 'chemical'>
@@ -244,13 +245,19 @@ export const assumptionSetSchema = z.strictObject({
   }
 })
 
-/** Thrown for any invalid engine input; `issues` holds one readable line per problem. */
+/** Thrown for any invalid engine input; `issues` holds one readable line per problem, `fields` the message per dotted path. */
 export class EngineInputError extends Error {
   readonly issues: string[]
-  constructor(what: string, issues: string[]) {
+  readonly fields: FieldMessages
+  constructor(what: string, issues: string[], fields: FieldMessages = {}) {
     super(`${what}:\n  - ${issues.join('\n  - ')}`)
     this.name = 'EngineInputError'
     this.issues = issues
+    this.fields = fields
+  }
+
+  static fromZod(what: string, error: z.ZodError): EngineInputError {
+    return new EngineInputError(what, formatIssues(error), fieldMessages(error.issues))
   }
 }
 
@@ -290,6 +297,6 @@ export function parseAssumptions(partial: unknown = {}): AssumptionSet {
   }
   const merged = deepMerge(defaultAssumptions, withoutRetiredKeys(partial ?? {}))
   const result = assumptionSetSchema.safeParse(merged)
-  if (!result.success) throw new EngineInputError('Invalid assumption set', formatIssues(result.error))
+  if (!result.success) throw EngineInputError.fromZod('Invalid assumption set', result.error)
   return result.data
 }

@@ -2,7 +2,7 @@
 // its schemas and hands the engine already-valid rows.
 import { z } from 'zod'
 import type { SiteInput } from './types'
-import { EngineInputError, formatIssues } from './assumptions'
+import { EngineInputError } from './assumptions'
 
 const finite = (label: string) => z.number({ error: `${label} must be a number` }).refine(Number.isFinite, { error: `${label} must be a finite number` })
 const positive = (label: string, unit: string) => finite(label).refine((v) => v > 0, { error: `${label} must be above 0 ${unit}`.trim() })
@@ -61,6 +61,6 @@ export const siteInputSchema = z.strictObject({
 /** Validate one site; throws EngineInputError with one line per problem. */
 export function parseSite(input: unknown): SiteInput {
   const result = siteInputSchema.safeParse(input)
-  if (!result.success) throw new EngineInputError('Invalid site', formatIssues(result.error))
+  if (!result.success) throw EngineInputError.fromZod('Invalid site', result.error)
   return result.data
 }

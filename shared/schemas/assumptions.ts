@@ -13,5 +13,3 @@ export const assumptionVersionEditSchema = z.object({
   parameters: z.record(z.string(), z.unknown()),
   note: z.string().trim().max(2000, 'At most 2,000 characters.').default(''),
 })
-
-export const uuidParams = z.object({ id: z.uuid('Not found.') })

@@ -1,12 +1,13 @@
 // Forms and request bodies of accounts: sign-in, passwords, invitations, members, audit filters.
 // Used by the pages (messages shown by the field) and by the routes (readValidatedBody).
 import { z } from 'zod'
+import { ROLE_NAMES } from '../roles'
 
 export const PASSWORD_MIN_LENGTH = 12
 /** scrypt work grows with the input; an upper bound keeps one request from tying up a core. */
 export const PASSWORD_MAX_LENGTH = 200
 
-const roleEnum = z.enum(['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer'], { message: 'Choose a role.' })
+const roleEnum = z.enum(ROLE_NAMES, { message: 'Choose a role.' })
 const email = z.string().trim().toLowerCase().email('Enter an e-mail address.').max(254, 'That e-mail address is too long.')
 
 export const signInSchema = z.object({
@@ -50,8 +51,6 @@ export const resetRequestSchema = z.object({ email })
 export const resetConfirmSchema = z.object({ password: newPasswordSchema })
 
 export const tokenParamsSchema = z.object({ token: z.string().min(20).max(100).regex(/^[\w-]+$/) })
-
-export const idParamsSchema = z.object({ id: z.string().uuid() })
 
 export const inviteSchema = z.object({ email, role: roleEnum })
 export type InviteInput = z.infer<typeof inviteSchema>

@@ -67,5 +67,3 @@ export const savePlanSchema = z.object({
   budget: z.number('The budget is a number.').min(0, 'The budget is not negative.').max(1e12),
   metric: z.enum(PLAN_METRICS).default('loss'),
 })
-
-export const idParams = z.object({ id: z.uuid('Unknown record.') })

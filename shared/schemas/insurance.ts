@@ -50,8 +50,6 @@ export const termsVersionSaveSchema = z.object({
   layers: layersSchema.optional(),
 })
 
-export const termsIdParams = z.object({ id: z.uuid('Unknown terms.') })
-
 const optionalNumber = z.preprocess(v => (v === '' || v === undefined ? undefined : Number(v)), z.number().optional())
 
 /** Query of the financial view: pricing basis, an optional other terms version, and a deductible what-if. */

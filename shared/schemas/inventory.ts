@@ -143,13 +143,3 @@ export const siteListQuerySchema = z.object({
   pageSize: z.coerce.number().int().min(1).max(200).default(50),
 })
 export type SiteListQuery = z.output<typeof siteListQuerySchema>
-
-/** Field errors of a failed parse, by dotted path (for messages beside the fields). */
-export function fieldErrors(error: z.ZodError): Record<string, string> {
-  const out: Record<string, string> = {}
-  for (const issue of error.issues) {
-    const key = issue.path.join('.')
-    out[key] ??= issue.message
-  }
-  return out
-}

@@ -55,3 +55,13 @@ export function inWords(iss: RawIssue): string {
     default: return sentence(label, 'this value is not valid')
   }
 }
+
+/** Field messages by dotted path ("tanks.2.heightM"; "" for the whole value). */
+export type FieldMessages = Record<string, string>
+
+/** The first message per field of a failed parse, keyed by `path.join('.')`: the one conversion, used by the server's answers, the forms and the engine's errors. */
+export function fieldMessages(issues: readonly { path: readonly PropertyKey[], message: string }[]): FieldMessages {
+  const fields: FieldMessages = {}
+  for (const issue of issues) fields[issue.path.map(String).join('.')] ??= issue.message
+  return fields
+}

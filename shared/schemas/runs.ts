@@ -22,5 +22,3 @@ export const startRunSchema = z.object({
   chunkSize: z.number().int().min(1, 'A chunk holds at least one site.').max(1000, 'A chunk holds at most 1,000 sites.').default(20),
 })
 export type StartRunInput = z.input<typeof startRunSchema>
-
-export const runIdParams = z.object({ id: z.uuid('Unknown run.') })

@@ -1,7 +1,7 @@
 // Arranging people for route tests: organisations, members with a role, signed-in clients.
 import { inject } from 'vitest'
 import type pg from 'pg'
-import { hashPasswordOutsideNitro } from '../../server/auth/passwords'
+import { hashPasswordOutsideNitro } from '../../server/accounts/password-hash'
 
 export const TEST_PASSWORD = 'correct horse battery staple'
 export type RoleName = 'admin' | 'analyst' | 'underwriter' | 'asset_manager' | 'viewer'

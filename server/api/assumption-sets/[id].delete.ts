@@ -3,7 +3,7 @@ import { deleteRecord } from '~~/server/archive/records'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const id = routeUuid(event, 'Assumption set')
+  const id = readId(event, 'Assumption set')
   await deleteRecord(member, event, 'assumption_set', id)
   setResponseStatus(event, 204)
   return null

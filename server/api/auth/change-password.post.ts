@@ -5,6 +5,9 @@ import { changePasswordSchema } from '~~/shared/schemas/auth'
 import { useDb } from '~~/server/db'
 import { users } from '~~/server/db/schema'
 import { passwordChangedMail } from '~~/server/mail/templates'
+import { revokeUserSessions } from '~~/server/accounts/sessions'
+import { assertSignInAllowed, recordSignInAttempt } from '~~/server/accounts/sign-in-throttle'
+import { assertPasswordAllowed, checkPassword } from '~~/server/accounts/passwords'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.everyone })
@@ -15,7 +18,7 @@ export default defineEventHandler(async (event) => {
   const [user] = await db.select().from(users).where(eq(users.id, member.user.id))
   if (!(await checkPassword(user?.passwordHash ?? null, body.currentPassword))) {
     await recordSignInAttempt(member.user.email, address, false)
-    throw createError({ statusCode: 400, statusMessage: 'The current password is not right.', data: { fieldErrors: { currentPassword: ['The current password is not right.'] } } })
+    fieldProblem('currentPassword', 'The current password is not right.')
   }
   assertPasswordAllowed(body.newPassword, member.user.email, 'newPassword')
   const passwordHash = await hashPassword(body.newPassword)

@@ -5,6 +5,8 @@ import { eq } from 'drizzle-orm'
 import { signInSchema } from '~~/shared/schemas/auth'
 import { useDb } from '~~/server/db'
 import { users } from '~~/server/db/schema'
+import { assertSignInAllowed, recordSignInAttempt } from '~~/server/accounts/sign-in-throttle'
+import { checkPassword } from '~~/server/accounts/passwords'
 
 const WRONG = 'That e-mail and password do not match an account.'
 

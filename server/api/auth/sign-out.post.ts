@@ -1,5 +1,7 @@
 // POST /api/auth/sign-out — ends this session: its record is revoked, so the cookie stops working
 // wherever it was copied. Any member.
+import { revokeSession } from '~~/server/accounts/sessions'
+
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.everyone })
   await revokeSession(member.sessionId)

@@ -3,7 +3,7 @@ import { deleteRecord } from '~~/server/archive/records'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const id = routeUuid(event, 'Calibration')
+  const id = readId(event, 'Calibration')
   await deleteRecord(member, event, 'calibration', id)
   setResponseStatus(event, 204)
   return null

@@ -5,6 +5,8 @@ import { useDb } from '~~/server/db'
 import { portfolioSites, sites } from '~~/server/db/schema'
 import { inventoryRows } from '~~/server/inventory/export'
 import { writeInventoryWorkbook } from '~~/server/inventory/workbook'
+import { findReadablePortfolio } from '~~/server/inventory/access'
+import { setDownloadHeaders, fileDate } from '~~/server/utils/downloads'
 
 const query = z.object({ portfolioId: z.uuid().optional() })
 
@@ -21,9 +23,6 @@ export default defineEventHandler(async (event) => {
   }
   const body = await writeInventoryWorkbook(await inventoryRows(db, siteIds))
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'inventory', entityId: portfolioId ?? null, after: { sites: siteIds.length } }, { event })
-  setResponseHeaders(event, {
-    'content-type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-    'content-disposition': `attachment; filename="stormledger-inventory-${new Date().toISOString().slice(0, 10)}.xlsx"`,
-  })
+  setDownloadHeaders(event, `stormledger-inventory-${fileDate()}.xlsx`)
   return body
 })

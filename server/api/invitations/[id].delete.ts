@@ -1,8 +1,8 @@
 // DELETE /api/invitations/:id — withdraw an open invitation; its link stops working. Admins.
-import { idParamsSchema } from '~~/shared/schemas/auth'
+import { revokeInvitation } from '~~/server/accounts/invitations'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })
-  const { id } = readValidParams(event, idParamsSchema)
+  const id = readId(event, 'Invitation')
   return { invitation: await revokeInvitation(event, member, id) }
 })

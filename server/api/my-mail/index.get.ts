@@ -2,6 +2,7 @@
 // (development, tests, demo), newest first. Any member; only ever one's own mail. With real SMTP
 // configured nothing is caught: { enabled: false }.
 import { settings } from '~~/server/settings'
+import { readOwnMail } from '~~/server/accounts/mailbox'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.everyone })

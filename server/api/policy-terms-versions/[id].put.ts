@@ -2,14 +2,14 @@
 // editor sends it) and, when given, its layers on the portfolio. A version no run has recorded changes in place; a recorded one stays as it is
 // and the rows become the set's next version.
 import { eq } from 'drizzle-orm'
-import { termsIdParams, termsVersionSaveSchema } from '~~/shared/schemas/insurance'
+import { termsVersionSaveSchema } from '~~/shared/schemas/insurance'
 import { useDb } from '~~/server/db'
 import { policyTermsVersions } from '~~/server/db/schema'
 import { addTermsVersion, findTermsVersion, layersOf, portfolioSiteIds, writeLayers, writeTermsRows } from '~~/server/insurance/terms-store'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })
-  const { id } = readValidParams(event, termsIdParams)
+  const id = readId(event, 'Terms version')
   const body = await readValidBody(event, termsVersionSaveSchema)
   const row = await findTermsVersion(useDb(), member.organisationId, id)
   if (!row) notFound('Terms version')

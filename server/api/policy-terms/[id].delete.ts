@@ -3,7 +3,7 @@ import { deleteRecord } from '~~/server/archive/records'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })
-  const id = routeUuid(event, 'Policy terms')
+  const id = readId(event, 'Policy terms')
   await deleteRecord(member, event, 'policy_terms_set', id)
   setResponseStatus(event, 204)
   return null

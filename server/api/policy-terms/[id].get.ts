@@ -1,10 +1,9 @@
 // GET /api/policy-terms/:id — one terms set with every version (newest first).
-import { termsIdParams } from '~~/shared/schemas/insurance'
 import { findTermsSet, listTermsVersions } from '~~/server/insurance/terms-store'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = readValidParams(event, termsIdParams)
+  const id = readId(event, 'Policy terms')
   const set = await findTermsSet(member.organisationId, id)
   if (!set) notFound('Policy terms')
   return { set, versions: await listTermsVersions(set.id) }

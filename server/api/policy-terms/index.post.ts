@@ -4,6 +4,7 @@ import { termsSetCreateSchema } from '~~/shared/schemas/insurance'
 import { useDb } from '~~/server/db'
 import { policyTermsSets } from '~~/server/db/schema'
 import { addTermsVersion } from '~~/server/insurance/terms-store'
+import { findReadablePortfolio } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })

@@ -2,10 +2,11 @@
 import { asc, eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { organisations, portfolioShares } from '~~/server/db/schema'
+import { findReadablePortfolio } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const id = routeUuid(event, 'Portfolio')
+  const id = readId(event, 'Portfolio')
   const { portfolio, ownerName, readOnly } = await findReadablePortfolio(member, id)
   const shares = readOnly ? [] : await useDb().select({ id: portfolioShares.id, organisationId: portfolioShares.organisationId, organisationName: organisations.name, createdAt: portfolioShares.createdAt })
     .from(portfolioShares).innerJoin(organisations, eq(organisations.id, portfolioShares.organisationId))

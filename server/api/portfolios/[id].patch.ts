@@ -3,10 +3,11 @@ import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { portfolios } from '~~/server/db/schema'
 import { portfolioSchema } from '~~/shared/schemas/inventory'
+import { PORTFOLIO_UNIQUE, findEditablePortfolio, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const before = await findEditablePortfolio(member, routeUuid(event, 'Portfolio'))
+  const before = await findEditablePortfolio(member, readId(event, 'Portfolio'))
   const body = await readValidBody(event, portfolioSchema)
   return useDb().transaction(async (tx) => {
     const [after] = await tx.update(portfolios).set(body).where(eq(portfolios.id, before.id)).returning()

@@ -2,6 +2,7 @@
 import { useDb } from '~~/server/db'
 import { portfolios } from '~~/server/db/schema'
 import { portfolioSchema } from '~~/shared/schemas/inventory'
+import { PORTFOLIO_UNIQUE, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })

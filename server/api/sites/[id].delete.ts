@@ -2,10 +2,11 @@
 import { count, eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { siteStructures, sites, tanks } from '~~/server/db/schema'
+import { findEditableSite } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const before = await findEditableSite(member, routeUuid(event, 'Site'))
+  const before = await findEditableSite(member, readId(event, 'Site'))
   return useDb().transaction(async (tx) => {
     const [[t], [s]] = await Promise.all([
       tx.select({ n: count() }).from(tanks).where(eq(tanks.siteId, before.id)),

@@ -2,6 +2,7 @@
 import { useDb } from '~~/server/db'
 import { listSites } from '~~/server/inventory/queries'
 import { siteListQuerySchema } from '~~/shared/schemas/inventory'
+import { findReadablePortfolio, readableSites } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)

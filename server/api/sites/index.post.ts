@@ -4,6 +4,7 @@ import { z } from 'zod'
 import { useDb } from '~~/server/db'
 import { portfolioSites, portfolios, sites } from '~~/server/db/schema'
 import { siteSchema } from '~~/shared/schemas/inventory'
+import { SITE_UNIQUE, rethrowUnique } from '~~/server/inventory/access'
 
 const extra = z.object({ portfolioIds: z.array(z.uuid()).max(100).default([]) })
 

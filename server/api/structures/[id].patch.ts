@@ -3,10 +3,11 @@ import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { siteStructures } from '~~/server/db/schema'
 import { structureSchema } from '~~/shared/schemas/inventory'
+import { STRUCTURE_UNIQUE, findEditableStructure, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { structure: before } = await findEditableStructure(member, routeUuid(event, 'Structure'))
+  const { structure: before } = await findEditableStructure(member, readId(event, 'Structure'))
   const body = await readValidBody(event, structureSchema)
   return useDb().transaction(async (tx) => {
     const [after] = await tx.update(siteStructures).set(body).where(eq(siteStructures.id, before.id)).returning()

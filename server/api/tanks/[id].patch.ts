@@ -3,10 +3,11 @@ import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { tankComponents, tanks } from '~~/server/db/schema'
 import { tankSchema } from '~~/shared/schemas/inventory'
+import { TANK_UNIQUE, findEditableTank, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { tank: before } = await findEditableTank(member, routeUuid(event, 'Tank'))
+  const { tank: before } = await findEditableTank(member, readId(event, 'Tank'))
   const { components, ...tank } = await readValidBody(event, tankSchema)
   return useDb().transaction(async (tx) => {
     const [after] = await tx.update(tanks).set(tank).where(eq(tanks.id, before.id)).returning()

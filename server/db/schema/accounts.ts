@@ -1,8 +1,9 @@
 import { type AnyPgColumn, boolean, index, integer, pgEnum, pgTable, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { timestamps } from './columns'
+import { ROLE_NAMES } from '../../../shared/roles'
 
 export const organisationKind = pgEnum('organisation_kind', ['insurer', 'broker', 'operator', 'consultancy'])
-export const memberRole = pgEnum('member_role', ['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer'])
+export const memberRole = pgEnum('member_role', ROLE_NAMES)
 
 export const organisations = pgTable('organisations', {
   id: uuid('id').primaryKey().defaultRandom(),

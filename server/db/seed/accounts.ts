@@ -1,7 +1,7 @@
 // The demo scenario's organisations and people (all invented): an insurer, a broker and two
 // operators, each with one person per role, all with the same demo password (README "Demo sign-ins").
 // Other domains' seeders find these organisations by name.
-import { hashPasswordOutsideNitro } from '../../auth/passwords'
+import { hashPasswordOutsideNitro } from '../../accounts/password-hash'
 import { memberships, organisations, users, type OrganisationKind, type Role } from '../schema'
 import type { Database } from '../index'
 import type { Seeder } from './index'

@@ -4,7 +4,7 @@ import { setArchived } from '~~/server/archive/records'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const id = routeUuid(event, 'Assumption set')
+  const id = readId(event, 'Assumption set')
   const { archived } = await readValidBody(event, archiveSchema)
   return setArchived(member, event, 'assumption_set', id, archived)
 })

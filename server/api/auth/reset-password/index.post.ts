@@ -1,6 +1,7 @@
 // POST /api/auth/reset-password — ask for a reset link by e-mail. Public. The answer is the same
 // whether or not the address has an account.
 import { resetRequestSchema } from '~~/shared/schemas/auth'
+import { requestPasswordReset } from '~~/server/accounts/password-reset'
 
 export default defineEventHandler(async (event) => {
   const body = await readValidBody(event, resetRequestSchema)

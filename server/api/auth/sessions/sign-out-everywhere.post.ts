@@ -1,6 +1,8 @@
 // POST /api/auth/sessions/sign-out-everywhere — revokes every session of the signed-in person,
 // this one included, on every device. Any member; audited.
 import { useDb } from '~~/server/db'
+import { revokeUserSessions } from '~~/server/accounts/sessions'
+
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.everyone })
   const ended = await useDb().transaction(async (tx) => {

@@ -4,7 +4,7 @@ import { setArchived } from '~~/server/archive/records'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const id = routeUuid(event, 'Calibration')
+  const id = readId(event, 'Calibration')
   const { archived } = await readValidBody(event, archiveSchema)
   return setArchived(member, event, 'calibration', id, archived)
 })

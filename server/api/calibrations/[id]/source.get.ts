@@ -1,13 +1,13 @@
 // GET /api/calibrations/:id/source — the source file of a calibration, exactly as uploaded (or as the entered series).
-import { z } from 'zod'
 import { findSourceFile } from '~~/server/calibration/queries'
 import { storedFileStream } from '~~/server/calibration/lightning-files'
+import { setDownloadHeaders } from '~~/server/utils/downloads'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = readValidParams(event, z.object({ id: z.uuid() }))
+  const id = readId(event, 'Calibration')
   const file = await findSourceFile(member.organisationId, id)
   const safeName = file.fileName.replace(/[^\w.-]+/g, '_')
-  setResponseHeaders(event, { 'content-type': 'text/csv; charset=utf-8', 'content-disposition': `attachment; filename="${safeName}"` })
+  setDownloadHeaders(event, safeName, 'csv')
   return sendStream(event, storedFileStream(file.content))
 })

@@ -1,12 +1,11 @@
 // DELETE /api/capital/actions/:id — withdraw a candidate action (asset managers, admins).
 import { and, eq } from 'drizzle-orm'
-import { idParams } from '~~/shared/schemas/capital'
 import { useDb } from '~~/server/db'
 import { capitalActions } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const { id } = readValidParams(event, idParams)
+  const id = readId(event, 'Action')
   await useDb().transaction(async (tx) => {
     const [row] = await tx.delete(capitalActions).where(and(eq(capitalActions.id, id), eq(capitalActions.organisationId, member.organisationId))).returning()
     if (!row) notFound('Action')

@@ -1,12 +1,11 @@
 // GET /api/capital/evaluations/:id — one evaluation with every scenario's paired figures.
 import { and, eq } from 'drizzle-orm'
-import { idParams } from '~~/shared/schemas/capital'
 import { useDb } from '~~/server/db'
 import { capitalEvaluations, capitalScenarioResults } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = readValidParams(event, idParams)
+  const id = readId(event, 'Evaluation')
   const db = useDb()
   const [evaluation] = await db.select().from(capitalEvaluations).where(and(eq(capitalEvaluations.id, id), eq(capitalEvaluations.organisationId, member.organisationId)))
   if (!evaluation) notFound('Evaluation')

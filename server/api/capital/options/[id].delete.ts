@@ -3,7 +3,7 @@ import { deleteRecord } from '~~/server/archive/records'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const id = routeUuid(event, 'Option')
+  const id = readId(event, 'Option')
   await deleteRecord(member, event, 'mitigation_option', id)
   setResponseStatus(event, 204)
   return null

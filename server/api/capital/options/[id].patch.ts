@@ -1,13 +1,13 @@
 // PATCH /api/capital/options/:id — edit an option's costs or name; its actions are re-priced (asset managers, admins).
 import { and, eq } from 'drizzle-orm'
-import { idParams, updateOptionSchema } from '~~/shared/schemas/capital'
+import { updateOptionSchema } from '~~/shared/schemas/capital'
 import { useDb } from '~~/server/db'
 import { capitalActions, mitigationOptions } from '~~/server/db/schema'
 import { costTanks, priceAction } from '~~/server/capital/create-actions'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const { id } = readValidParams(event, idParams)
+  const id = readId(event, 'Option')
   const body = await readValidBody(event, updateOptionSchema)
   if (Object.keys(body).length === 0) badRequest('Give what to change: the name, the fixed cost, the rate, the cost basis or the costing step.')
   return useDb().transaction(async (tx) => {

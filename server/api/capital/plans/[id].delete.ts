@@ -1,12 +1,11 @@
 // DELETE /api/capital/plans/:id — remove a saved plan (asset managers, admins).
 import { and, eq } from 'drizzle-orm'
-import { idParams } from '~~/shared/schemas/capital'
 import { useDb } from '~~/server/db'
 import { capitalPlans } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const { id } = readValidParams(event, idParams)
+  const id = readId(event, 'Plan')
   await useDb().transaction(async (tx) => {
     const [row] = await tx.delete(capitalPlans).where(and(eq(capitalPlans.id, id), eq(capitalPlans.organisationId, member.organisationId))).returning()
     if (!row) notFound('Plan')

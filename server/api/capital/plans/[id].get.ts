@@ -1,11 +1,10 @@
 // GET /api/capital/plans/:id — one saved plan: its actions with their figures and each site's actions measured together.
-import { idParams } from '~~/shared/schemas/capital'
 import { useDb } from '~~/server/db'
 import { planDetail } from '~~/server/capital/plan-detail'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = readValidParams(event, idParams)
+  const id = readId(event, 'Plan')
   const detail = await planDetail(useDb(), member.organisationId, id)
   if (!detail) notFound('Plan')
   return { currency: member.currency, ...detail }

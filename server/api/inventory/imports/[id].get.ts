@@ -5,7 +5,7 @@ import { inventoryImports } from '~~/server/db/schema'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const id = routeUuid(event, 'Import')
+  const id = readId(event, 'Import')
   const [record] = await useDb().select({
     id: inventoryImports.id, fileName: inventoryImports.fileName, sizeBytes: inventoryImports.sizeBytes, status: inventoryImports.status,
     summary: inventoryImports.summary, errors: inventoryImports.errors, createdAt: inventoryImports.createdAt, committedAt: inventoryImports.committedAt,

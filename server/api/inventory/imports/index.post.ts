@@ -1,6 +1,7 @@
 // POST /api/inventory/imports — upload an XLSX or CSV file (multipart field `file`); returns the preview:
 // counts of new, changed and unchanged rows and every row error. Nothing is written to the inventory yet.
 import { MAX_IMPORT_BYTES } from '~~/shared/inventory-layout'
+import { previewUpload } from '~~/server/inventory/uploads'
 
 const TOO_BIG = `The file is larger than ${MAX_IMPORT_BYTES / 1024 / 1024} MB, the limit. Split it into several files.`
 

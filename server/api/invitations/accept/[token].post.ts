@@ -3,6 +3,7 @@
 // password (then it is signed in). Public: the token and the account's consent are the credential.
 // Single use.
 import { acceptInvitationSchema, tokenParamsSchema } from '~~/shared/schemas/auth'
+import { acceptInvitation } from '~~/server/accounts/invitations'
 
 export default defineEventHandler(async (event) => {
   const { token } = readValidParams(event, tokenParamsSchema)

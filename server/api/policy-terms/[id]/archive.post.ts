@@ -4,7 +4,7 @@ import { setArchived } from '~~/server/archive/records'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })
-  const id = routeUuid(event, 'Policy terms')
+  const id = readId(event, 'Policy terms')
   const { archived } = await readValidBody(event, archiveSchema)
   return setArchived(member, event, 'policy_terms_set', id, archived)
 })

@@ -3,10 +3,11 @@ import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { organisations, portfolioShares } from '~~/server/db/schema'
 import { portfolioShareSchema } from '~~/shared/schemas/inventory'
+import { findEditablePortfolio } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })
-  const portfolio = await findEditablePortfolio(member, routeUuid(event, 'Portfolio'))
+  const portfolio = await findEditablePortfolio(member, readId(event, 'Portfolio'))
   const body = await readValidBody(event, portfolioShareSchema)
   const db = useDb()
   const [target] = await db.select({ id: organisations.id, name: organisations.name }).from(organisations).where(eq(organisations.name, body.organisationName))

@@ -3,10 +3,11 @@ import { and, eq, inArray } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { portfolioSites, sites } from '~~/server/db/schema'
 import { portfolioSitesSchema } from '~~/shared/schemas/inventory'
+import { findEditablePortfolio } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const portfolio = await findEditablePortfolio(member, routeUuid(event, 'Portfolio'))
+  const portfolio = await findEditablePortfolio(member, readId(event, 'Portfolio'))
   const body = await readValidBody(event, portfolioSitesSchema)
   const db = useDb()
   // A portfolio holds only its own organisation's sites.

@@ -1,11 +1,10 @@
 // POST /api/runs/:id/cancel — stop a queued or running run; its partial results are removed.
-import { runIdParams } from '~~/shared/schemas/runs'
 import { endRunUnsuccessfully, notifyRunEnded } from '~~/server/runs/ending'
 import { getRun } from '~~/server/runs/queries'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Run')
   const run = await getRun(member.organisationId, id)
   if (!run) notFound('Run')
   const cancelled = await endRunUnsuccessfully(id, 'cancelled', `Cancelled by ${member.user.name}`)

@@ -1,6 +1,5 @@
 // GET /api/runs/:id/dashboard — headline figures with intervals, exceedance curves and what drives
 // the total (top sites and tanks by expected fires) for a succeeded run.
-import { runIdParams } from '~~/shared/schemas/runs'
 import { exceedanceSeries, findSucceededRun, headline, portfolioResult, topSites, topTanks, type StoredYearSummary } from '~~/server/results/queries'
 import { cachedJson } from '~~/server/results/cache'
 
@@ -8,7 +7,7 @@ const DRIVERS = 10
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Results of this run')
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
   // Serialised once per run and currency (server/results/cache.ts), sent as it is.

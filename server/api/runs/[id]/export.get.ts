@@ -1,16 +1,16 @@
 // GET /api/runs/:id/export — the results workbook of a succeeded run (everyone but viewers); audited.
 import { eq } from 'drizzle-orm'
-import { runIdParams } from '~~/shared/schemas/runs'
 import { useDb } from '~~/server/db'
 import { runTankResults, users } from '~~/server/db/schema'
 import { findVersion } from '~~/server/assumptions/versions'
 import { findSucceededRun, portfolioResult, siteResults } from '~~/server/results/queries'
 import { writeResultsWorkbook } from '~~/server/results/workbook'
 import { settings } from '~~/server/settings'
+import { setDownloadHeaders } from '~~/server/utils/downloads'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Results of this run')
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
   const db = useDb()
@@ -27,7 +27,6 @@ export default defineEventHandler(async (event) => {
     requestedBy: requester[0]?.name ?? null, exportedBy: member.user.name,
   })
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'run', entityId: run.id, after: { workbook: 'results' } }, { event })
-  setResponseHeader(event, 'content-type', 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet')
-  setResponseHeader(event, 'content-disposition', `attachment; filename="stormledger-results-${run.id.slice(0, 8)}.xlsx"`)
+  setDownloadHeaders(event, `stormledger-results-${run.id.slice(0, 8)}.xlsx`)
   return buffer
 })

@@ -1,26 +1,17 @@
 // GET /api/runs/:id/financial-workbook — the financial view as a workbook (Summary with cautions and
 // provenance, Sites, Premium, Exceedance), with the same query as the view.
-import { runIdParams } from '~~/shared/schemas/runs'
 import { financialQuerySchema } from '~~/shared/schemas/insurance'
-import { FinancialViewError, financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
+import { financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
 import { writeFinancialWorkbook } from '~~/server/insurance/workbook'
+import { setDownloadHeaders } from '~~/server/utils/downloads'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Results of this run')
   const query = readValidQuery(event, financialQuerySchema)
-  let view
-  try {
-    view = financialView(await loadFinancialInputs(member.organisationId, id, query.termsVersionId), { ...query, whatIfOccurrenceDeductible: undefined, whatIfAggregateDeductible: undefined })
-  } catch (error) {
-    if (error instanceof FinancialViewError) throw createError({ statusCode: error.statusCode, statusMessage: error.message })
-    throw error
-  }
+  const view = financialView(await loadFinancialInputs(member.organisationId, id, query.termsVersionId), { ...query, whatIfOccurrenceDeductible: undefined, whatIfAggregateDeductible: undefined })
   const body = await writeFinancialWorkbook(view, { currency: member.currency, exportedBy: `${member.user.name} <${member.user.email}>`, exportedAt: new Date() })
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'financial_results', entityId: id, after: { termsVersionId: view.terms?.versionId ?? null, pricing: view.pricing } }, { event })
-  setResponseHeaders(event, {
-    'content-type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-    'content-disposition': `attachment; filename="stormledger-financial-${id.slice(0, 8)}.xlsx"`,
-  })
+  setDownloadHeaders(event, `stormledger-financial-${id.slice(0, 8)}.xlsx`)
   return body
 })

@@ -2,19 +2,13 @@
 // after-terms and insured losses per site and for the portfolio, exceedance, the sites behind the
 // tail and the technical premium; with whatIf* query values, the same figures with changed
 // deductibles, from the stored events (no new simulation).
-import { runIdParams } from '~~/shared/schemas/runs'
 import { financialQuerySchema } from '~~/shared/schemas/insurance'
-import { FinancialViewError, financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
+import { financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Results of this run')
   const query = readValidQuery(event, financialQuerySchema)
-  try {
-    const inputs = await loadFinancialInputs(member.organisationId, id, query.termsVersionId)
-    return { currency: member.currency, ...financialView(inputs, query) }
-  } catch (error) {
-    if (error instanceof FinancialViewError) throw createError({ statusCode: error.statusCode, statusMessage: error.message })
-    throw error
-  }
+  const inputs = await loadFinancialInputs(member.organisationId, id, query.termsVersionId)
+  return { currency: member.currency, ...financialView(inputs, query) }
 })

@@ -1,24 +1,18 @@
 // POST /api/runs/:id/retry — start a new run with the same portfolio, assumptions, mode, seed and
 // targets (on the inventory as it is now).
-import { runIdParams } from '~~/shared/schemas/runs'
 import { getRun } from '~~/server/runs/queries'
-import { RunStartError, startRun } from '~~/server/runs/start'
+import { startRun } from '~~/server/runs/start'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Run')
   const run = await getRun(member.organisationId, id)
   if (!run) notFound('Run')
-  try {
-    const again = await startRun({
-      portfolioId: run.portfolioId, assumptionVersionId: run.assumptions.versionId, mode: run.mode, seed: run.seed,
-      targetRse: run.targetRse, years: run.years, maxSamplesPerTank: run.maxSamplesPerTank, chunkSize: run.chunkSize,
-      negligibleRatePerYear: run.negligibleRatePerYear,
-    }, { userId: member.user.id, organisationId: member.organisationId }, { retryOf: id })
-    setResponseStatus(event, 201)
-    return again
-  } catch (error) {
-    if (error instanceof RunStartError) throw createError({ statusCode: error.statusCode, statusMessage: error.message })
-    throw error
-  }
+  const again = await startRun({
+    portfolioId: run.portfolioId, assumptionVersionId: run.assumptions.versionId, mode: run.mode, seed: run.seed,
+    targetRse: run.targetRse, years: run.years, maxSamplesPerTank: run.maxSamplesPerTank, chunkSize: run.chunkSize,
+    negligibleRatePerYear: run.negligibleRatePerYear,
+  }, { userId: member.user.id, organisationId: member.organisationId }, { retryOf: id })
+  setResponseStatus(event, 201)
+  return again
 })

@@ -2,10 +2,11 @@
 import { siteNoteSchema } from '~~/shared/schemas/notes'
 import { useDb } from '~~/server/db'
 import { siteNotes } from '~~/server/db/schema'
+import { findReadableSite } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.underwriting })
-  const { site } = await findReadableSite(member, routeUuid(event, 'Site'))
+  const { site } = await findReadableSite(member, readId(event, 'Site'))
   const { body } = await readValidBody(event, siteNoteSchema)
   return useDb().transaction(async (tx) => {
     const [note] = await tx.insert(siteNotes).values({ organisationId: member.organisationId, siteId: site.id, authorId: member.user.id, body }).returning()

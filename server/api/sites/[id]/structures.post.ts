@@ -2,10 +2,11 @@
 import { useDb } from '~~/server/db'
 import { siteStructures } from '~~/server/db/schema'
 import { structureSchema } from '~~/shared/schemas/inventory'
+import { STRUCTURE_UNIQUE, findEditableSite, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const site = await findEditableSite(member, routeUuid(event, 'Site'))
+  const site = await findEditableSite(member, readId(event, 'Site'))
   const body = await readValidBody(event, structureSchema)
   const created = await useDb().transaction(async (tx) => {
     const [row] = await tx.insert(siteStructures).values({ ...body, siteId: site.id }).returning()

@@ -2,10 +2,11 @@
 import { useDb } from '~~/server/db'
 import { tankComponents, tanks } from '~~/server/db/schema'
 import { tankSchema } from '~~/shared/schemas/inventory'
+import { TANK_UNIQUE, findEditableSite, rethrowUnique } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const site = await findEditableSite(member, routeUuid(event, 'Site'))
+  const site = await findEditableSite(member, readId(event, 'Site'))
   const { components, ...tank } = await readValidBody(event, tankSchema)
   const created = await useDb().transaction(async (tx) => {
     const [row] = await tx.insert(tanks).values({ ...tank, siteId: site.id }).returning()

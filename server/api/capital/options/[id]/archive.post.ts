@@ -4,7 +4,7 @@ import { setArchived } from '~~/server/archive/records'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.planners })
-  const id = routeUuid(event, 'Option')
+  const id = readId(event, 'Option')
   const { archived } = await readValidBody(event, archiveSchema)
   return setArchived(member, event, 'mitigation_option', id, archived)
 })

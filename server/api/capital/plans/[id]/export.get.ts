@@ -1,19 +1,16 @@
 // GET /api/capital/plans/:id/export — the plan as a workbook, with the caution (everyone but viewers).
-import { idParams } from '~~/shared/schemas/capital'
 import { useDb } from '~~/server/db'
 import { planDetail } from '~~/server/capital/plan-detail'
 import { writePlanWorkbook } from '~~/server/capital/workbook'
+import { setDownloadHeaders, fileDate } from '~~/server/utils/downloads'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
-  const { id } = readValidParams(event, idParams)
+  const id = readId(event, 'Plan')
   const detail = await planDetail(useDb(), member.organisationId, id)
   if (!detail) notFound('Plan')
   const body = await writePlanWorkbook(detail, member.currency)
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'capital_plan', entityId: id, after: { actions: detail.actions.length } }, { event })
-  setResponseHeaders(event, {
-    'content-type': 'application/vnd.openxmlformats-officedocument.spreadsheetml.sheet',
-    'content-disposition': `attachment; filename="stormledger-capital-plan-${new Date().toISOString().slice(0, 10)}.xlsx"`,
-  })
+  setDownloadHeaders(event, `stormledger-capital-plan-${fileDate()}.xlsx`)
   return body
 })

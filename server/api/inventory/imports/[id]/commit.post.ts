@@ -1,12 +1,13 @@
 // POST /api/inventory/imports/:id/commit — write a previewed import in one transaction, or nothing
 // ({ portfolioId } optionally adds every site of the file to one of the organisation's portfolios).
 import { z } from 'zod'
+import { commitImport } from '~~/server/inventory/uploads'
 
 const body = z.object({ portfolioId: z.uuid().nullable().default(null) })
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
-  const id = routeUuid(event, 'Import')
+  const id = readId(event, 'Import')
   const { portfolioId } = await readValidBody(event, body)
   return commitImport(event, member, id, portfolioId)
 })

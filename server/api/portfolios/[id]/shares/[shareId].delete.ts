@@ -2,11 +2,12 @@
 import { and, eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { portfolioShares } from '~~/server/db/schema'
+import { findEditablePortfolio } from '~~/server/inventory/access'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.admins })
-  const portfolio = await findEditablePortfolio(member, routeUuid(event, 'Portfolio'))
-  const shareId = routeUuid(event, 'Share', 'shareId')
+  const portfolio = await findEditablePortfolio(member, readId(event, 'Portfolio'))
+  const shareId = readId(event, 'Share', 'shareId')
   await useDb().transaction(async (tx) => {
     const [gone] = await tx.delete(portfolioShares).where(and(eq(portfolioShares.id, shareId), eq(portfolioShares.portfolioId, portfolio.id))).returning()
     if (!gone) notFound('Share')

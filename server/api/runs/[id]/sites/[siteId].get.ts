@@ -1,14 +1,12 @@
 // GET /api/runs/:id/sites/:siteId — one site of a succeeded run: figures, tanks (with property
 // damage and interruption apart, and the neighbours a tank's fire would most likely reach), event
 // bands, and the site as the run saw it (plan, what-if inputs).
-import { z } from 'zod'
 import { exceedanceSeries, findSucceededRun, headline, lossSplit, runSpreadNeighbours, siteDetail } from '~~/server/results/queries'
-
-const params = z.object({ id: z.uuid('Unknown run.'), siteId: z.uuid('Unknown site.') })
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id, siteId } = readValidParams(event, params)
+  const id = readId(event, 'Results of this run')
+  const siteId = readId(event, 'Site in this run', 'siteId')
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
   const detail = await siteDetail(run.id, siteId)

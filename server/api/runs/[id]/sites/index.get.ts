@@ -1,12 +1,11 @@
 // GET /api/runs/:id/sites — every site of a succeeded run with its figures, coordinates and insured
 // value (map, sites × metrics heatmap, site table).
-import { runIdParams } from '~~/shared/schemas/runs'
 import { findSucceededRun, siteResults } from '~~/server/results/queries'
 import { cachedJson } from '~~/server/results/cache'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
-  const { id } = readValidParams(event, runIdParams)
+  const id = readId(event, 'Results of this run')
   const run = await findSucceededRun(member.organisationId, id)
   if (!run) notFound('Results of this run')
   // Serialised once per run and currency (server/results/cache.ts), sent as it is.

@@ -1,25 +1,21 @@
 // The import service behind the import routes: read → validate → compare (preview, stored with the
 // original file) and commit (all or nothing, in one transaction).
 import { and, eq } from 'drizzle-orm'
-import type { H3Event } from 'h3'
+import { createError, type H3Event } from 'h3'
 import { useDb } from '../db'
 import { inventoryImports, portfolios } from '../db/schema'
-import { applyImport, planImport, type ImportPlan } from '../inventory/import'
-import { parseOnThread, UploadReadError } from '../inventory/parse-pool'
-import type { Member } from './auth'
+import { applyImport, planImport, type ImportPlan } from './import'
+import { parseOnThread } from './parse-pool'
+import type { Member } from '../utils/auth'
+import { conflict, fail, notFound } from '../utils/errors'
+import { recordAudit } from '../utils/audit'
 
 const MAX_STORED_ERRORS = 1000
 
 /** Reads the file on an upload thread (never on this event loop), then compares it with the inventory. */
 async function planFor(organisationId: string, data: Buffer, fileName: string): Promise<ImportPlan> {
-  let outcome
-  try {
-    outcome = await parseOnThread({ data, fileName })
-  } catch (error) {
-    if (error instanceof UploadReadError) throw createError({ statusCode: error.status, statusMessage: error.message })
-    throw error
-  }
-  if (!outcome.ok) throw createError({ statusCode: outcome.status, statusMessage: outcome.message })
+  const outcome = await parseOnThread({ data, fileName })
+  if (!outcome.ok) fail(outcome.status, outcome.message)
   return await planImport(useDb(), organisationId, outcome.file)
 }
 
@@ -54,7 +50,8 @@ export async function commitImport(event: H3Event, member: Member, importId: str
     if (record.status === 'committed') conflict('This import was committed already.')
     const plan = await planFor(member.organisationId, record.fileData, record.fileName)
     if (plan.errors.length > 0) {
-      badRequest(`The file has ${plan.errors.length} error${plan.errors.length === 1 ? '' : 's'}; nothing was imported. Fix them and upload the file again.`, { errors: plan.errors.slice(0, MAX_STORED_ERRORS) })
+      // Row errors (sheet, row, column → message) are the import's own payload, shown as the preview shows them.
+      throw createError({ statusCode: 400, statusMessage: `The file has ${plan.errors.length} error${plan.errors.length === 1 ? '' : 's'}; nothing was imported. Fix them and upload the file again.`, data: { errors: plan.errors.slice(0, MAX_STORED_ERRORS) } })
     }
     await applyImport(tx as never, member.organisationId, plan, { portfolioId })
     await tx.update(inventoryImports).set({ status: 'committed', committedAt: new Date(), summary: plan.summary }).where(eq(inventoryImports.id, record.id))

@@ -4,7 +4,7 @@
 // leaves the window. A successful sign-in clears the count for its e-mail address (not for the
 // client address). Unknown addresses are counted like known ones, so throttling reveals nothing.
 import { sql } from 'drizzle-orm'
-import type { H3Event } from 'h3'
+import { createError, setResponseHeader, type H3Event } from 'h3'
 import { useDb } from '../db'
 import { signInAttempts } from '../db/schema'
 

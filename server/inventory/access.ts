@@ -2,21 +2,13 @@
 // sites, tanks and structures; it reads (never writes) those of a portfolio shared with it.
 // Another organisation's rows answer 404; a write to a row shared read-only answers 403.
 import { and, eq, inArray, or, type SQL } from 'drizzle-orm'
-import type { H3Event } from 'h3'
-import { z } from 'zod'
 import { useDb } from '../db'
 import { portfolioShares, portfolioSites, siteStructures, sites, tanks } from '../db/schema'
-import type { Member } from './auth'
-import { readablePortfolio } from '../inventory/portfolio-access'
+import type { Member } from '../utils/auth'
+import { conflict, forbidden, notFound } from '../utils/errors'
+import { readablePortfolio } from './portfolio-access'
 
 const READ_ONLY = 'This inventory is shared with your organisation read-only; it can only be changed by the organisation that owns it.'
-
-/** The route's `id` param as a uuid; anything else cannot name a row, so it is a 404. */
-export function routeUuid(event: H3Event, what: string, name = 'id'): string {
-  const parsed = z.uuid().safeParse(getRouterParam(event, name))
-  if (!parsed.success) notFound(what)
-  return parsed.data
-}
 
 /** Ids of the sites in portfolios shared with the organisation. */
 export function sharedSiteIds(organisationId: string) {
@@ -37,7 +29,7 @@ export async function findReadableSite(member: Member, id: string) {
 
 export async function findEditableSite(member: Member, id: string) {
   const { site, readOnly } = await findReadableSite(member, id)
-  if (readOnly) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  if (readOnly) forbidden(READ_ONLY)
   return site
 }
 
@@ -50,7 +42,7 @@ export async function findReadableTank(member: Member, id: string) {
 
 export async function findEditableTank(member: Member, id: string) {
   const row = await findReadableTank(member, id)
-  if (row.readOnly) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  if (row.readOnly) forbidden(READ_ONLY)
   return row
 }
 
@@ -58,7 +50,7 @@ export async function findEditableStructure(member: Member, id: string) {
   const [row] = await useDb().select({ structure: siteStructures, site: sites }).from(siteStructures).innerJoin(sites, eq(sites.id, siteStructures.siteId))
     .where(and(eq(siteStructures.id, id), readableSites(member.organisationId)))
   if (!row) notFound('Structure')
-  if (row.site.organisationId !== member.organisationId) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  if (row.site.organisationId !== member.organisationId) forbidden(READ_ONLY)
   return row
 }
 
@@ -71,7 +63,7 @@ export async function findReadablePortfolio(member: Member, id: string) {
 
 export async function findEditablePortfolio(member: Member, id: string) {
   const row = await findReadablePortfolio(member, id)
-  if (row.readOnly) throw createError({ statusCode: 403, statusMessage: READ_ONLY })
+  if (row.readOnly) forbidden(READ_ONLY)
   return row.portfolio
 }
 

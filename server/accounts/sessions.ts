@@ -5,7 +5,7 @@ import { and, desc, eq, gt, isNull, ne, sql } from 'drizzle-orm'
 import { getRequestHeader, type H3Event } from 'h3'
 import { useDb, type Database } from '../db'
 import { userSessions } from '../db/schema'
-import { clientAddress } from './client-address'
+import { clientAddress } from '../utils/client-address'
 
 /** A session lasts at most this long from sign-in (as the cookie's seal does). */
 export const SESSION_LIFETIME_MS = 7 * 24 * 60 * 60 * 1000

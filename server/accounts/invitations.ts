@@ -2,11 +2,19 @@
 // Accepting creates the account (name and password) or, with that person's consent (signed in, or
 // their password), adds the membership to an existing one.
 import { and, desc, eq, isNull } from 'drizzle-orm'
-import type { H3Event } from 'h3'
+import { createError, type H3Event } from 'h3'
 import { useDb } from '../db'
 import { invitations, memberships, organisations, users } from '../db/schema'
 import { invitationMail } from '../mail/templates'
-import type { Member } from './auth'
+import type { Member } from '../utils/auth'
+import { conflict, fail, fieldProblem, notFound } from '../utils/errors'
+import { recordAudit } from '../utils/audit'
+import { appLink, queueMail } from '../utils/mail'
+import { memberOfSession, startMemberSession } from '../utils/auth'
+import { clientAddress } from '../utils/client-address'
+import { INVITATION_LIFETIME_MS, hashToken, newToken } from './tokens'
+import { assertSignInAllowed, recordSignInAttempt } from './sign-in-throttle'
+import { assertPasswordAllowed, checkPassword } from './passwords'
 
 type Invitation = typeof invitations.$inferSelect
 export type InvitationStatus = 'pending' | 'accepted' | 'revoked' | 'expired'
@@ -148,14 +156,14 @@ export async function acceptInvitation(event: H3Event, token: string, input: { n
     const created = !user
     let signInNow = false
     if (!user) {
-      if (!input.name) throw createError({ statusCode: 400, statusMessage: 'Enter your name.', data: { fieldErrors: { name: ['Enter your name.'] } } })
-      if (!input.password) throw createError({ statusCode: 400, statusMessage: 'Choose a password.', data: { fieldErrors: { password: ['Choose a password.'] } } })
+      if (!input.name) fieldProblem('name', 'Enter your name.')
+      if (!input.password) fieldProblem('password', 'Choose a password.')
       assertPasswordAllowed(input.password, invitation.email)
       ;[user] = await tx.insert(users).values({ email: invitation.email, name: input.name, passwordHash: await hashPassword(input.password), lastOrganisationId: invitation.organisationId }).returning()
     } else {
       if (signedIn && signedIn !== user.id) throw createError({ statusCode: 403, statusMessage: 'This invitation is for another address. Sign out, then sign in as the invited address to accept it.' })
       if (!signedIn) {
-        if (!input.currentPassword) throw createError({ statusCode: 401, statusMessage: SIGN_IN_TO_ACCEPT, data: { fieldErrors: { currentPassword: ['Enter your password to accept.'] } } })
+        if (!input.currentPassword) fail(401, SIGN_IN_TO_ACCEPT, { currentPassword: 'Enter your password to accept.' })
         await assertPasswordOfInvitee(event, user, input.currentPassword)
         signInNow = true
       }
@@ -188,7 +196,7 @@ async function assertPasswordOfInvitee(event: H3Event, user: typeof users.$infer
   await assertSignInAllowed(event, user.email, address)
   if (user.disabled || !(await checkPassword(user.passwordHash, password))) {
     await recordSignInAttempt(user.email, address, false)
-    throw createError({ statusCode: 401, statusMessage: 'That password does not match the invited account.', data: { fieldErrors: { currentPassword: ['That password does not match the invited account.'] } } })
+    fieldProblem('currentPassword', 'That password does not match the invited account.', 401)
   }
   await recordSignInAttempt(user.email, address, true)
 }

@@ -7,7 +7,7 @@ import { passwordResetTokens, users } from '../db/schema'
 import { passwordResetMail } from '../mail/templates'
 import { recordAudit } from '../utils/audit'
 import { appLink, queueMail } from '../utils/mail'
-import { newToken, RESET_LIFETIME_MS } from '../utils/tokens'
+import { newToken, RESET_LIFETIME_MS } from './tokens'
 
 /** At most this many reset messages per account per hour, so the form cannot be used to flood an inbox. */
 export const MAX_RESET_MAILS_PER_HOUR = 5

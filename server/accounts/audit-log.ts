@@ -4,6 +4,7 @@ import { and, count, desc, eq, gte, inArray, isNull, lt, or, type SQL } from 'dr
 import { useDb } from '../db'
 import { auditEvents, memberships, users } from '../db/schema'
 import type { AuditQuery } from '../../shared/schemas/auth'
+import { pageWindow } from '../db/pagination'
 
 export const AUDIT_PAGE_SIZE = 50
 
@@ -20,6 +21,7 @@ export async function readAuditLog(organisationId: string, q: AuditQuery) {
   if (q.from) filters.push(gte(auditEvents.at, new Date(`${q.from}T00:00:00Z`)))
   if (q.to) filters.push(lt(auditEvents.at, new Date(new Date(`${q.to}T00:00:00Z`).getTime() + 86_400_000)))
   const where = and(...filters)
+  const window = pageWindow({ page: q.page, pageSize: AUDIT_PAGE_SIZE })
   const [events, [total], people, entities] = await Promise.all([
     db.select({
       id: auditEvents.id, at: auditEvents.at, action: auditEvents.action, entity: auditEvents.entity, entityId: auditEvents.entityId,
@@ -27,7 +29,7 @@ export async function readAuditLog(organisationId: string, q: AuditQuery) {
       personId: users.id, personName: users.name, personEmail: users.email,
     }).from(auditEvents).leftJoin(users, eq(users.id, auditEvents.userId))
       .where(where).orderBy(desc(auditEvents.at), desc(auditEvents.id))
-      .limit(AUDIT_PAGE_SIZE).offset((q.page - 1) * AUDIT_PAGE_SIZE),
+      .limit(window.limit).offset(window.offset),
     db.select({ n: count() }).from(auditEvents).where(where),
     db.selectDistinct({ id: users.id, name: users.name, email: users.email }).from(auditEvents)
       .innerJoin(users, eq(users.id, auditEvents.userId)).where(scope(organisationId)).orderBy(users.name),

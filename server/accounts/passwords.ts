@@ -1,5 +1,6 @@
 // Password checks inside Nitro (hashPassword / verifyPassword come from nuxt-auth-utils).
 import { passwordProblem } from '../../shared/schemas/auth'
+import { fieldProblem } from '../utils/errors'
 
 let dummyHash: Promise<string> | undefined
 
@@ -17,5 +18,5 @@ export async function checkPassword(storedHash: string | null, plain: string): P
 /** Throws 400 with a message by the field when a new password breaks the rules. */
 export function assertPasswordAllowed(password: string, email: string, field = 'password'): void {
   const problem = passwordProblem(password, email)
-  if (problem) throw createError({ statusCode: 400, statusMessage: problem, data: { fieldErrors: { [field]: [problem] } } })
+  if (problem) fieldProblem(field, problem)
 }

@@ -1,15 +1,21 @@
 // Password reset: single-use tokens valid for one hour. A request is queued and answered at once,
 // whether or not the address has an account; a confirmed reset ends every session.
 import { and, eq, isNull, sql } from 'drizzle-orm'
-import type { H3Event } from 'h3'
+import { createError, type H3Event } from 'h3'
 import { useDb } from '../db'
 import { passwordResetTokens, users } from '../db/schema'
 import { enqueue } from '../jobs/queue'
 import { passwordChangedMail } from '../mail/templates'
+import { recordAudit } from '../utils/audit'
+import { appLink, queueMail } from '../utils/mail'
+import { clientAddress } from '../utils/client-address'
+import { revokeUserSessions } from './sessions'
+import { hashToken } from './tokens'
+import { assertPasswordAllowed } from './passwords'
 
 /**
  * Queues the request and returns: the lookup, the token and the mail happen in the
- * 'auth.password-reset' job (server/auth/password-reset-request.ts), so a known and an unknown
+ * 'auth.password-reset' job (server/accounts/password-reset-request.ts), so a known and an unknown
  * address take the same path and the same time here.
  */
 export async function requestPasswordReset(event: H3Event, email: string): Promise<void> {

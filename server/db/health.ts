@@ -1,6 +1,6 @@
 // What /api/health reports: the database, the migration level and the queue, each checked live.
 import type pg from 'pg'
-import { latestAppliedMigration } from '../db/migrate'
+import { latestAppliedMigration } from './migrate'
 
 export interface HealthReport {
   status: 'ok' | 'degraded'

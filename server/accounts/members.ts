@@ -3,7 +3,9 @@ import { and, asc, eq, ne } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import { useDb } from '../db'
 import { memberships, users, type Role } from '../db/schema'
-import type { Member } from './auth'
+import type { Member } from '../utils/auth'
+import { conflict, notFound } from '../utils/errors'
+import { recordAudit } from '../utils/audit'
 
 type Tx = Parameters<Parameters<ReturnType<typeof useDb>['transaction']>[0]>[0]
 
