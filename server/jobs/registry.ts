@@ -4,6 +4,7 @@ import { handleMailSend } from './mail-send'
 import { handlePasswordReset } from './password-reset'
 import { handleRunChunk } from './run-chunk'
 import { handleScenarioSite } from './scenario-site'
+import { handleStormBatch } from './storm-batch'
 import { threadCount } from '../runs/thread-pool'
 import type { JobName, JobPayloads } from './types'
 
@@ -18,4 +19,5 @@ export const jobRegistry: Registry = {
   'run.chunk': { handler: handleRunChunk, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount },
   // One site per core at a time (capital planning's scenario evaluations).
   'scenario.site': { handler: handleScenarioSite, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount },
+  'storm.batch': { handler: handleStormBatch, work: { pollingIntervalSeconds: 0.5, batchSize: 1 }, concurrency: () => 1 },
 }
