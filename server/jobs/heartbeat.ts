@@ -8,12 +8,13 @@ import { hostname } from 'node:os'
 import type PgBoss from 'pg-boss'
 import { usePool } from '../db'
 import { failEvaluation } from '../capital/evaluations'
+import { failStormBatch } from '../storms/process'
 import { endRunUnsuccessfully, notifyRunEnded } from '../runs/ending'
 import { settings } from '../settings'
 import type { JobName, JobPayloads } from './types'
 
 /** Queues whose jobs beat while worked (long computations); mail is short and expires on its own. */
-export const BEATING_QUEUES = ['run.chunk', 'scenario.site'] as const satisfies JobName[]
+export const BEATING_QUEUES = ['run.chunk', 'scenario.site', 'storm.batch'] as const satisfies JobName[]
 
 const workerName = `${hostname()}:${process.pid}`
 
@@ -78,6 +79,8 @@ export async function reclaimStaleJobs(boss: PgBoss): Promise<number> {
     } else if (job.name === 'scenario.site') {
       const data = job.data as JobPayloads['scenario.site']
       await failEvaluation(data.evaluationId, `Site ${data.siteId} failed after ${attempts} attempts — its worker stopped answering.`)
+    } else if (job.name === 'storm.batch') {
+      await failStormBatch((job.data as JobPayloads['storm.batch']).batchId, `failed after ${attempts} attempts — its worker stopped answering.`)
     }
   }
   return stale.length

@@ -19,5 +19,5 @@ export const jobRegistry: Registry = {
   'run.chunk': { handler: handleRunChunk, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount },
   // One site per core at a time (capital planning's scenario evaluations).
   'scenario.site': { handler: handleScenarioSite, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount },
-  'storm.batch': { handler: handleStormBatch, work: { pollingIntervalSeconds: 0.5, batchSize: 1 }, concurrency: () => 1 },
+  'storm.batch': { handler: handleStormBatch, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: () => 1 },
 }

@@ -8,7 +8,7 @@ import { ENGINE_VERSION } from '../../shared/engine'
 import { parseAssumptions, type AssumptionSet } from '../../shared/engine/assumptions'
 import { computeStormWindow, StormSiteIndex, windowTotals, type StormFlashRecord } from '../../shared/storms/compute'
 import { DEFAULT_STORM_QUADRATURE } from '../../shared/engine/storm'
-import type { Database } from '../db'
+import { useDb, type Database } from '../db'
 import { withClientTransaction } from '../db/transaction'
 import {
   assumptionSets, assumptionSetVersions, memberships, organisations, sites, stormAlerts, stormAlertSettings, stormAlertSubscribers,
@@ -36,6 +36,11 @@ export async function processStormBatch(batchId: string): Promise<void> {
     await tx.update(stormBatches).set({ state: 'processed', processedAt: new Date(), error: null }).where(eq(stormBatches.id, batchId))
     await sendAlerts(tx, bossDb, boss, organisationId, [...touched])
   })
+}
+
+/** A batch no attempt is left for: marked failed with the reason (its records stay stored; a new batch re-runs the windows). */
+export async function failStormBatch(batchId: string, reason: string): Promise<void> {
+  await useDb().update(stormBatches).set({ state: 'failed', error: reason.slice(0, 500) }).where(and(eq(stormBatches.id, batchId), sql`${stormBatches.state} <> 'processed'`))
 }
 
 interface WindowSpan { id: string | null, startsAt: number, endsAt: number, flashIds: string[], merged: string[] }

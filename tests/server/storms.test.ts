@@ -201,3 +201,37 @@ describe('uploads', () => {
     expect(list).toHaveLength(2) // more than an hour after the first storm: a window of its own
   })
 })
+
+describe('a worker cut off mid-batch', () => {
+  it('leaves one copy of every record and the batch is worked again in full', async () => {
+    // Hold the organisation's window lock, so the worker's transaction stops inside the batch; then
+    // end that worker's database session (what a killed worker amounts to for PostgreSQL).
+    const holder = await pool.connect()
+    try {
+      await holder.query(`SELECT pg_advisory_lock(hashtext($1))`, [`storm-windows:${org}`])
+      const res = await postFeed(`${HEADER}\n2026-08-02T18:00:00.000Z,${SITE.lat.toFixed(6)},${(SITE.lon + 0.002).toFixed(6)},-20.0,ground,0.05\n2026-08-02T18:00:30.000Z,${(SITE.lat + 0.01).toFixed(6)},${SITE.lon.toFixed(6)},-15.0,ground,0.2\n`)
+      expect(res.status).toBe(202)
+      let waiting: number | null = null
+      for (let i = 0; i < 200 && waiting === null; i++) {
+        const { rows } = await pool.query(`SELECT pid FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query LIKE '%pg_advisory_xact_lock%' AND datname = current_database()`)
+        if (rows.length) waiting = rows[0].pid
+        else await new Promise(r => setTimeout(r, 100))
+      }
+      expect(waiting, 'the worker never reached the window lock').not.toBeNull()
+      await pool.query(`SELECT pg_terminate_backend($1)`, [waiting])
+      await new Promise(r => setTimeout(r, 500))
+    } finally {
+      await holder.query(`SELECT pg_advisory_unlock(hashtext($1))`, [`storm-windows:${org}`]).catch(() => {})
+      holder.release()
+    }
+    await waitForBatches(60_000)
+    const { rows } = await pool.query(`SELECT record_key, count(*)::int AS n FROM storm_flashes WHERE organisation_id = $1 GROUP BY record_key HAVING count(*) > 1`, [org])
+    expect(rows).toEqual([]) // unique on record identity: one copy each
+    const windows = await pool.query(`SELECT w.id, w.flash_count, (SELECT count(*)::int FROM storm_flashes f WHERE f.window_id = w.id) AS n FROM storm_windows w WHERE w.organisation_id = $1 AND w.starts_at >= '2026-08-01'`, [org])
+    expect(windows.rows).toHaveLength(1)
+    expect(windows.rows[0].flash_count).toBe(2)
+    expect(windows.rows[0].n).toBe(2)
+    const results = await pool.query(`SELECT count(*)::int AS n FROM storm_tank_results WHERE window_id = $1`, [windows.rows[0].id])
+    expect(results.rows[0].n).toBe(1) // the one tank, once
+  }, 90_000)
+})
