@@ -2,6 +2,7 @@
 // see every tank, and an organisation that a portfolio was shared with sees the tanks of the
 // shared sites only. Insured loss is the reader's: its own current terms on each site.
 import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm'
+import type { StormReportView } from '../../shared/storms/types'
 import { occurrenceNetSplit, NO_TERMS, type SiteTerms } from '../../shared/insurance/terms'
 import { useDb, type Database } from '../db'
 import {
@@ -54,7 +55,7 @@ export function insuredFireLoss(propertyDamage: number, interruption: number, te
   return occurrenceNetSplit(propertyDamage, interruption, terms).total * terms.share
 }
 
-export async function stormReport(member: Member, windowId: string) {
+export async function stormReport(member: Member, windowId: string): Promise<StormReportView> {
   const db = useDb()
   const [window] = await db.select().from(stormWindows).where(and(eq(stormWindows.id, windowId), readableWindowFilter(member.organisationId)))
   if (!window) notFound('Storm window')
@@ -108,4 +109,4 @@ export async function stormReport(member: Member, windowId: string) {
   }
 }
 
-export type StormReport = Awaited<ReturnType<typeof stormReport>>
+export type StormReport = StormReportView
