@@ -22,11 +22,21 @@ function readableWindowFilter(organisationId: string) {
   )!
 }
 
+/** Sites of portfolios shared with the organisation, as SQL for a sub-select. */
+function sharedSitesSql(organisationId: string) {
+  return sql`select ps.site_id from portfolio_sites ps join portfolio_shares sh on sh.portfolio_id = ps.portfolio_id where sh.organisation_id = ${organisationId}`
+}
+
 export async function listStormWindows(member: Member) {
   return useDb().select({
     id: stormWindows.id, startsAt: stormWindows.startsAt, endsAt: stormWindows.endsAt, flashCount: stormWindows.flashCount, state: stormWindows.state,
-    expectedFires: stormWindows.expectedFires, computedAt: stormWindows.computedAt, own: sql<boolean>`${stormWindows.organisationId} = ${member.organisationId}`,
-    topIgnition: sql<number | null>`(select max(r.ignition) from storm_tank_results r where r.window_id = ${stormWindows.id})`,
+    computedAt: stormWindows.computedAt, own: sql<boolean>`${stormWindows.organisationId} = ${member.organisationId}`,
+    // Another organisation's storm: its figures over the shared sites only, never the owner's totals.
+    // Correlated sub-selects name the outer table in full (Drizzle would render its columns unqualified).
+    expectedFires: sql<number>`case when storm_windows.organisation_id = ${member.organisationId} then storm_windows.expected_fires
+      else (select coalesce(sum(r.ignition), 0) from storm_tank_results r where r.window_id = storm_windows.id and r.site_id in (${sharedSitesSql(member.organisationId)})) end`,
+    topIgnition: sql<number | null>`(select max(r.ignition) from storm_tank_results r where r.window_id = storm_windows.id
+      and (storm_windows.organisation_id = ${member.organisationId} or r.site_id in (${sharedSitesSql(member.organisationId)})))`,
   }).from(stormWindows).where(readableWindowFilter(member.organisationId)).orderBy(desc(stormWindows.startsAt)).limit(500)
 }
 

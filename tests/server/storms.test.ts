@@ -235,3 +235,27 @@ describe('a worker cut off mid-batch', () => {
     expect(results.rows[0].n).toBe(1) // the one tank, once
   }, 90_000)
 })
+
+describe('portfolios shared with another organisation', () => {
+  it('the receiving organisation sees the shared sites’ tanks of the storm, never the owner’s other sites or totals', async () => {
+    const other = await pool.query(`INSERT INTO sites (organisation_id, external_id, name, latitude_deg, longitude_deg, flash_density_per_km2_yr) VALUES ($1, 'ST-2', 'Unshared yard', 31.6, -102.2, 4) RETURNING id`, [org])
+    await pool.query(`INSERT INTO tanks (site_id, external_id, tag, material, height_m, diameter_m, x_m, y_m, contents, flammable_vapour_space) VALUES ($1, 'T-9', 'T-9', 'frp', 8, 4, 0, 0, 'condensate', true)`, [other.rows[0].id])
+    const insurer = await createOrganisation(pool, 'Storm Insurer', 'insurer')
+    const portfolio = await pool.query(`SELECT id FROM portfolios WHERE organisation_id = $1 AND name = 'Storm fleet'`, [org])
+    await pool.query(`INSERT INTO portfolio_shares (portfolio_id, organisation_id) VALUES ($1, $2)`, [portfolio.rows[0].id, insurer])
+    const reader = await memberClient(pool, insurer, 'underwriter')
+    await postFeed(`${HEADER}\n2026-09-10T12:00:00.000Z,${SITE.lat.toFixed(6)},${SITE.lon.toFixed(6)},-60.0,ground,0\n2026-09-10T12:01:00.000Z,31.600000,-102.200000,-60.0,ground,0\n`)
+    await waitForBatches()
+    type Row = { id: string, startsAt: string, expectedFires: number, topIgnition: number, own: boolean }
+    const mine = (await (await underwriter.get('/api/storms/windows')).json() as Row[]).find(w => w.startsAt.startsWith('2026-09-10'))!
+    expect(mine.expectedFires).toBeCloseTo(1, 9) // two tanks each struck on the axis: 0.5 + 0.5 (MODEL.md §4, hand-worked)
+    const theirs = (await (await reader.get('/api/storms/windows')).json() as Row[]).find(w => w.startsAt.startsWith('2026-09-10'))!
+    expect(theirs.own).toBe(false)
+    expect(theirs.expectedFires).toBeCloseTo(0.5, 9) // the shared site's tank only
+    const report = await (await reader.get(`/api/storms/windows/${theirs.id}`)).json() as { tanks: { tag: string, hasTerms: boolean }[], totals: { expectedFires: number, expectedInsuredLoss: number } }
+    expect(report.tanks.map(t => t.tag)).toEqual(['T-1'])
+    expect(report.totals.expectedFires).toBeCloseTo(0.5, 9)
+    expect(report.totals.expectedInsuredLoss).toBe(0) // the insurer has no terms on this portfolio
+    expect(report.tanks[0]!.hasTerms).toBe(false)
+  })
+})
