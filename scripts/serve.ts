@@ -78,3 +78,8 @@ if (signIns.length > 0) {
   console.log(`    password: ${signIns[0]!.password}\n`)
 }
 console.log('  Ctrl-C stops the app and the worker.\n')
+// STORMLEDGER_FAKE_FEED=1: replay the example storm to the feed endpoint on loopback (README "After the storm").
+if (process.env.STORMLEDGER_FAKE_FEED === '1') {
+  const feed = spawn(resolve(root, 'node_modules/.bin/tsx'), ['server/storms/fake-feed.ts', '--url', `http://127.0.0.1:${port}`], { cwd: root, env, stdio: 'inherit' })
+  children.set('fake feed', feed)
+}

@@ -20,6 +20,8 @@ export const navSections: NavSection[] = [
   { label: 'Insurance', to: '/insurance', roles: ['admin', 'underwriter'] },
   { label: 'Capital plan', to: '/capital-plan', roles: ['admin', 'analyst', 'asset_manager', 'underwriter', 'viewer'] },
   { label: 'Calibration', to: '/calibration', roles: [...EDITOR_ROLES] },
+  // After the storm: reports for every role but viewers (the readers: asset managers, underwriters, analysts, admins).
+  { label: 'Storms', to: '/storms', roles: ['admin', 'analyst', 'underwriter', 'asset_manager'] },
   { label: 'Admin', to: '/admin', roles: ['admin'] },
 ]
 

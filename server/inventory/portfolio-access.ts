@@ -1,6 +1,6 @@
 // Which portfolio an organisation may read: its own, or one another organisation shared with it.
 // Framework-free (the run starter uses it from scripts too); routes use `findReadablePortfolio`
-// (server/utils/inventory.ts), which answers 404 when this returns null.
+// (server/inventory/access.ts), which answers 404 when this returns null.
 import { and, eq, inArray, or } from 'drizzle-orm'
 import { useDb } from '../db'
 import { organisations, portfolioShares, portfolios } from '../db/schema'

@@ -11,6 +11,8 @@ export const queueOptions: Record<JobName, Omit<PgBoss.Queue, 'name'>> = {
   // A chunk whose worker died is handed to another worker once it expires.
   'run.chunk': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },
   'scenario.site': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },
+  // A batch's work commits in one transaction: a worker that dies mid-batch leaves nothing half-done.
+  'storm.batch': { retryLimit: 4, retryDelay: 2, retryBackoff: true, expireInSeconds: 600 },
 }
 
 let boss: PgBoss | undefined

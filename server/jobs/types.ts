@@ -6,6 +6,8 @@ export interface JobPayloads {
   'auth.password-reset': { email: string, ipAddress: string | null }
   'run.chunk': { runId: string, chunkIndex: number }
   'scenario.site': { evaluationId: string, siteId: string }
+  /** A stored storm batch: assign its flashes to windows, recompute those windows, send alerts. */
+  'storm.batch': { batchId: string }
 }
 
 export type JobName = keyof JobPayloads

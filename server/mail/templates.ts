@@ -45,3 +45,19 @@ If that was you, there is nothing to do: ${o.signInLink}
 If it was not, reset your password now: ${o.resetLink}${SIGNATURE}`,
   }
 }
+
+export function stormAlertMail(o: { organisationName: string, windowLabel: string, threshold: number, tanks: Array<{ tag: string, siteName: string, ignition: number }>, link: string }): MailContent {
+  const lines = o.tanks.slice(0, 25).map(t => `- ${t.siteName} · ${t.tag}: ${(100 * t.ignition).toFixed(1)} % probability of a lightning fire`)
+  const more = o.tanks.length > 25 ? `\n…and ${o.tanks.length - 25} more in the report.` : ''
+  return {
+    subject: `Storm alert: ${o.tanks.length} tank${o.tanks.length === 1 ? '' : 's'} of ${o.organisationName} above ${(100 * o.threshold).toFixed(1)} % ignition probability`,
+    text: `The recorded flashes of the storm ${o.windowLabel} give these tanks an ignition probability above your organisation's alert threshold of ${(100 * o.threshold).toFixed(1)} %, highest first — inspect them first:
+
+${lines.join('\n')}${more}
+
+The storm report ranks every tank, names the flash that drives each figure and gives the expected fires and losses:
+${o.link}
+
+These are probabilities computed from lightning-location records and illustrative assumptions; they rank where to look and are no finding that a tank burned. You receive this because you asked for storm alerts in Stormledger.${SIGNATURE}`,
+  }
+}

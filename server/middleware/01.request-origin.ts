@@ -13,6 +13,8 @@ const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
 const UPLOAD_TYPES: { path: string, types: string[] }[] = [
   { path: '/api/inventory/imports', types: ['multipart/form-data'] },
   { path: '/api/calibrations/lightning-files', types: ['text/csv', 'application/octet-stream', 'application/vnd.ms-excel'] },
+  { path: '/api/storms/uploads', types: ['text/csv', 'application/octet-stream', 'application/vnd.ms-excel'] },
+  { path: '/api/storms/feed', types: ['text/csv'] },
 ]
 
 export function isOwnOrigin(event: H3Event, origin: string): boolean {

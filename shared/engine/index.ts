@@ -57,3 +57,7 @@ export { tankSparkingHeatmap, siteEventBands } from './heatmap'
 export type { PreparedSite } from './kernel'
 export { prepareSite, evaluateFlashes } from './kernel'
 export { siteRadius } from './reach'
+export type { StormFlashAtSite, FlashTankProbabilities, StormQuadrature, StormTankOutcome } from './storm'
+export {
+  flashTankProbabilities, stormSiteOutcome, stormReachM, atLeastOnce, eastNorthOf, degreesFor, DEFAULT_STORM_QUADRATURE,
+} from './storm'

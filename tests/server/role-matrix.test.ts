@@ -54,7 +54,7 @@ describe('every route file has a rule', () => {
   })
   it('gives every route that takes an organisation\'s row by id a cross-organisation probe', () => {
     // A [param] route needs `params` unless it is public (its token is the credential).
-    const unprobed = allRules.filter(({ rule }) => /\[/.test(rule.path) && rule.allowed !== 'public' && !rule.params).map(x => x.rule.file)
+    const unprobed = allRules.filter(({ rule }) => /\[/.test(rule.path) && typeof rule.allowed !== 'string' && !rule.params).map(x => x.rule.file)
     expect(unprobed, 'Add `params` (fixture keys) to these rules').toEqual([])
   })
 })
@@ -99,7 +99,10 @@ async function keepSignedIn(role: RoleName) {
 }
 
 describe.each(allRules.map(x => [`${x.rule.method} ${x.rule.path}`, x] as const))('%s', (_name, { rule, module }) => {
-  it(rule.allowed === 'public' ? 'is open to everyone' : `answers 401 without a session and 403 to roles other than ${rule.allowed.join(', ')}`, async () => {
+  const title = rule.allowed === 'public'
+    ? 'is open to everyone'
+    : rule.allowed === 'token' ? 'answers 401 to every session without its bearer token' : `answers 401 without a session and 403 to roles other than ${rule.allowed.join(', ')}`
+  it(title, async () => {
     const path = pathWith(rule, () => randomUUID())
     const anonymous = await call(new Client(), rule, path)
     const statuses: Record<string, number> = { anonymous: anonymous.status }
@@ -110,14 +113,14 @@ describe.each(allRules.map(x => [`${x.rule.method} ${x.rule.path}`, x] as const)
     const expected: Record<string, string> = {}
     const actual: Record<string, string> = {}
     for (const [who, status] of Object.entries(statuses)) {
-      const mayCall = rule.allowed === 'public' || (who !== 'anonymous' && rule.allowed.includes(who as RoleName))
-      expected[who] = mayCall ? 'passes the guard' : who === 'anonymous' ? '401' : '403'
+      const mayCall = rule.allowed === 'public' || (typeof rule.allowed !== 'string' && who !== 'anonymous' && rule.allowed.includes(who as RoleName))
+      expected[who] = mayCall ? 'passes the guard' : who === 'anonymous' || rule.allowed === 'token' ? '401' : '403'
       actual[who] = status === 401 || status === 403 ? String(status) : 'passes the guard'
     }
     expect(actual, `statuses: ${JSON.stringify(statuses)}`).toEqual(expected)
   })
 
-  if (rule.params && rule.allowed !== 'public') {
+  if (rule.params && typeof rule.allowed !== 'string') {
     const allowed = rule.allowed
     it(`answers 404 to ${allowed.join(', ')} of another organisation on this organisation's rows`, async () => {
       const values = fixtures.get(module.file)!

@@ -8,6 +8,8 @@ import { handleMailSend } from './mail-send'
 import { handlePasswordReset } from './password-reset'
 import { handleRunChunk } from './run-chunk'
 import { handleScenarioSite } from './scenario-site'
+import { failStormBatch } from '../../storms/process'
+import { handleStormBatch } from './storm-batch'
 
 export const jobRegistry: JobRegistry = {
   'mail.send': { handler: handleMailSend, work: { pollingIntervalSeconds: 1, batchSize: 5 }, concurrency: () => 1 },
@@ -23,5 +25,10 @@ export const jobRegistry: JobRegistry = {
   'scenario.site': {
     handler: handleScenarioSite, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: threadCount, beats: true,
     onAbandoned: (data, message) => failEvaluation(data.evaluationId, `Site ${data.siteId} ${message}`),
+  },
+  // One storm batch at a time: its windows, results and alerts commit in one transaction.
+  'storm.batch': {
+    handler: handleStormBatch, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: () => 1, beats: true,
+    onAbandoned: (data, message) => failStormBatch(data.batchId, message),
   },
 }

@@ -15,8 +15,12 @@ export interface RouteRule {
   file: string
   /** e.g. '/api/sites/[id]' */
   path: string
-  /** Roles that pass the guard; others get 403, anonymous 401. */
-  allowed: RoleName[] | 'public'
+  /**
+   * Roles that pass the guard; others get 403, anonymous 401. 'public': no guard. 'token': the route
+   * is authenticated by a bearer token of its own (e.g. a storm feed's), not by the session, so every
+   * caller without that token — signed in with any role or not — gets 401.
+   */
+  allowed: RoleName[] | 'public' | 'token'
   /** Route param → fixture key, e.g. { id: 'siteId' }, for the cross-organisation probes. */
   params?: Record<string, string>
   /**

@@ -1,0 +1,122 @@
+// Reading storm reports. A window belongs to the organisation whose flashes made it; its members
+// see every tank, and an organisation that a portfolio was shared with sees the tanks of the
+// shared sites only. Insured loss is the reader's: its own current terms on each site.
+import { and, asc, desc, eq, inArray, isNull, or, sql } from 'drizzle-orm'
+import type { StormReportView } from '../../shared/storms/types'
+import { occurrenceNetSplit, NO_TERMS, type SiteTerms } from '../../shared/insurance/terms'
+import { useDb, type Database } from '../db'
+import {
+  assumptionSets, assumptionSetVersions, policyTermsSets, policyTermsVersions, portfolioSites, sites, stormFlashes, stormTankResults,
+  stormWindows, tanks,
+} from '../db/schema'
+import { termsBySite } from '../insurance/terms-store'
+import { sharedSiteIds } from '../inventory/access'
+import type { Member } from '../utils/auth'
+import { notFound } from '../utils/errors'
+
+/** Organisations whose storm windows the member's organisation may read (itself, and those sharing a portfolio with it). */
+function readableWindowFilter(organisationId: string) {
+  return or(
+    eq(stormWindows.organisationId, organisationId),
+    inArray(stormWindows.id, useDb().selectDistinct({ id: stormTankResults.windowId }).from(stormTankResults).where(inArray(stormTankResults.siteId, sharedSiteIds(organisationId)))),
+  )!
+}
+
+/** Sites of portfolios shared with the organisation, as SQL for a sub-select. */
+function sharedSitesSql(organisationId: string) {
+  return sql`select ps.site_id from portfolio_sites ps join portfolio_shares sh on sh.portfolio_id = ps.portfolio_id where sh.organisation_id = ${organisationId}`
+}
+
+export async function listStormWindows(member: Member) {
+  return useDb().select({
+    id: stormWindows.id, startsAt: stormWindows.startsAt, endsAt: stormWindows.endsAt, flashCount: stormWindows.flashCount, state: stormWindows.state,
+    computedAt: stormWindows.computedAt, own: sql<boolean>`${stormWindows.organisationId} = ${member.organisationId}`,
+    // Another organisation's storm: its figures over the shared sites only, never the owner's totals.
+    // Correlated sub-selects name the outer table in full (Drizzle would render its columns unqualified).
+    expectedFires: sql<number>`case when storm_windows.organisation_id = ${member.organisationId} then storm_windows.expected_fires
+      else (select coalesce(sum(r.ignition), 0) from storm_tank_results r where r.window_id = storm_windows.id and r.site_id in (${sharedSitesSql(member.organisationId)})) end`,
+    topIgnition: sql<number | null>`(select max(r.ignition) from storm_tank_results r where r.window_id = storm_windows.id
+      and (storm_windows.organisation_id = ${member.organisationId} or r.site_id in (${sharedSitesSql(member.organisationId)})))`,
+  }).from(stormWindows).where(readableWindowFilter(member.organisationId)).orderBy(desc(stormWindows.startsAt)).limit(500)
+}
+
+/** The reader's current terms per site: its newest version of each terms set in use whose portfolio holds the site. */
+async function currentTerms(db: Database, organisationId: string, siteIds: string[]): Promise<Map<string, SiteTerms>> {
+  const out = new Map<string, SiteTerms>()
+  if (siteIds.length === 0) return out
+  const sets = await db.select({ id: policyTermsSets.id, portfolioId: policyTermsSets.portfolioId }).from(policyTermsSets)
+    .where(and(eq(policyTermsSets.organisationId, organisationId), isNull(policyTermsSets.archivedAt))).orderBy(desc(policyTermsSets.updatedAt))
+  for (const set of sets) {
+    const [version] = await db.select({ id: policyTermsVersions.id }).from(policyTermsVersions).where(eq(policyTermsVersions.termsSetId, set.id)).orderBy(desc(policyTermsVersions.version)).limit(1)
+    if (!version) continue
+    const inPortfolio = new Set((await db.select({ siteId: portfolioSites.siteId }).from(portfolioSites).where(eq(portfolioSites.portfolioId, set.portfolioId))).map(r => r.siteId))
+    const terms = await termsBySite(db, version.id)
+    for (const siteId of siteIds) {
+      if (out.has(siteId) || !inPortfolio.has(siteId)) continue
+      out.set(siteId, terms.get(siteId) ?? NO_TERMS)
+    }
+  }
+  return out
+}
+
+/** Expected insured loss of one fire: the fire's PD and BI through the per-occurrence terms, then the share. */
+export function insuredFireLoss(propertyDamage: number, interruption: number, terms: SiteTerms | undefined): number {
+  if (!terms) return 0
+  return occurrenceNetSplit(propertyDamage, interruption, terms).total * terms.share
+}
+
+export async function stormReport(member: Member, windowId: string): Promise<StormReportView> {
+  const db = useDb()
+  const [window] = await db.select().from(stormWindows).where(and(eq(stormWindows.id, windowId), readableWindowFilter(member.organisationId)))
+  if (!window) notFound('Storm window')
+  const own = window.organisationId === member.organisationId
+  const shared = own ? null : new Set((await sharedSiteIds(member.organisationId)).map(r => r.siteId))
+  const rows = await db.select({
+    tankId: stormTankResults.tankId, siteId: stormTankResults.siteId, direct: stormTankResults.direct, sparking: stormTankResults.sparking,
+    ignition: stormTankResults.ignition, drivingFlashId: stormTankResults.drivingFlashId, drivingIgnition: stormTankResults.drivingIgnition,
+    fireLossPropertyDamage: stormTankResults.fireLossPropertyDamage, fireLossInterruption: stormTankResults.fireLossInterruption,
+    tag: tanks.tag, siteName: sites.name, siteExternalId: sites.externalId, latDeg: sites.latitudeDeg, lonDeg: sites.longitudeDeg,
+    flashTime: stormFlashes.occurredAt, flashCurrentKa: stormFlashes.peakCurrentKa, flashLat: stormFlashes.latDeg, flashLon: stormFlashes.lonDeg, flashErrorKm: stormFlashes.locationErrorKm,
+  }).from(stormTankResults)
+    .innerJoin(tanks, eq(tanks.id, stormTankResults.tankId)).innerJoin(sites, eq(sites.id, stormTankResults.siteId))
+    .leftJoin(stormFlashes, eq(stormFlashes.id, stormTankResults.drivingFlashId))
+    .where(eq(stormTankResults.windowId, windowId)).orderBy(desc(stormTankResults.ignition), asc(sites.name), asc(tanks.tag))
+  const visible = shared ? rows.filter(r => shared.has(r.siteId)) : rows
+  const terms = await currentTerms(db, member.organisationId, [...new Set(visible.map(r => r.siteId))])
+  let expectedFires = 0, groundUp = 0, insured = 0
+  const tankRows = visible.map((r) => {
+    const fire = r.fireLossPropertyDamage + r.fireLossInterruption
+    const insuredFire = insuredFireLoss(r.fireLossPropertyDamage, r.fireLossInterruption, terms.get(r.siteId))
+    expectedFires += r.ignition
+    groundUp += r.ignition * fire
+    insured += r.ignition * insuredFire
+    return {
+      ...r, flashTime: r.flashTime?.toISOString() ?? null,
+      expectedGroundUpLoss: r.ignition * fire, expectedInsuredLoss: r.ignition * insuredFire, hasTerms: terms.has(r.siteId),
+    }
+  })
+  const siteIds = [...new Set(visible.map(r => r.siteId))]
+  const siteRows = own
+    ? await db.select({ id: sites.id, name: sites.name, latDeg: sites.latitudeDeg, lonDeg: sites.longitudeDeg }).from(sites).where(eq(sites.organisationId, window.organisationId))
+    : siteIds.length ? await db.select({ id: sites.id, name: sites.name, latDeg: sites.latitudeDeg, lonDeg: sites.longitudeDeg }).from(sites).where(inArray(sites.id, siteIds)) : []
+  const flashes = await db.select({ id: stormFlashes.id, time: stormFlashes.occurredAt, latDeg: stormFlashes.latDeg, lonDeg: stormFlashes.lonDeg, peakCurrentKa: stormFlashes.peakCurrentKa, type: stormFlashes.type, locationErrorKm: stormFlashes.locationErrorKm })
+    .from(stormFlashes).where(eq(stormFlashes.windowId, windowId)).orderBy(asc(stormFlashes.occurredAt)).limit(20_000)
+  const [assumption] = window.assumptionVersionId
+    ? await db.select({ setName: assumptionSets.name, version: assumptionSetVersions.version }).from(assumptionSetVersions)
+      .innerJoin(assumptionSets, eq(assumptionSets.id, assumptionSetVersions.assumptionSetId)).where(eq(assumptionSetVersions.id, window.assumptionVersionId))
+    : [undefined]
+  return {
+    window: {
+      id: window.id, startsAt: window.startsAt.toISOString(), endsAt: window.endsAt.toISOString(), flashCount: window.flashCount, state: window.state,
+      computedAt: window.computedAt?.toISOString() ?? null, engineVersion: window.engineVersion, summary: window.summary, own,
+      assumptions: assumption ? `${assumption.setName} — version ${assumption.version}` : 'documented defaults (the organisation has no assumption set)',
+    },
+    totals: { expectedFires, expectedGroundUpLoss: groundUp, expectedInsuredLoss: insured, tanksWithTerms: tankRows.filter(t => t.hasTerms).length },
+    currency: member.currency,
+    tanks: tankRows,
+    sites: siteRows,
+    flashes: flashes.map(f => ({ ...f, time: f.time.toISOString() })),
+  }
+}
+
+export type StormReport = StormReportView
