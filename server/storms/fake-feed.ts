@@ -9,7 +9,7 @@ import { resolve } from 'node:path'
 import { eq } from 'drizzle-orm'
 import { closeDb, useDb } from '../db'
 import { organisations, stormFeeds } from '../db/schema'
-import { newToken } from '../utils/tokens'
+import { newToken } from '../accounts/tokens'
 
 export interface ReplayOptions { url: string, token: string, csv: string, batchSize: number, intervalMs: number, log?: (line: string) => void }
 

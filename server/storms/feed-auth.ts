@@ -4,7 +4,7 @@ import { and, count, eq, gt, isNull } from 'drizzle-orm'
 import type { H3Event } from 'h3'
 import { useDb } from '../db'
 import { stormBatches, stormFeeds } from '../db/schema'
-import { hashToken } from '../utils/tokens'
+import { hashToken } from '../accounts/tokens'
 import { fail } from '../utils/errors'
 
 /** Batches one feed may post per minute (a provider posting every few seconds stays well inside). */

@@ -1,5 +1,6 @@
 // POST /api/storms/feeds — a new feed for a lightning-data provider; answers its bearer token once
 // (only its SHA-256 is kept). Audited without the token.
+import { newToken } from '~~/server/accounts/tokens'
 import { useDb } from '~~/server/db'
 import { stormFeeds } from '~~/server/db/schema'
 import { stormFeedSchema } from '~~/shared/schemas/storms'
