@@ -44,9 +44,11 @@ describe('comparing runs against simulation noise', () => {
     ]
     expect(verdicts).toHaveLength(8 * 2 + 4)
     for (const v of verdicts) expect(['within_noise', 'exceeds_noise']).toContain(v.verdict)
-    // With honest standard errors each change exceeds 1.96 SE with probability 5 %; of 20 rows, 3 or
-    // more would do so by chance with probability 7.5 % (binomial, hand-worked).
-    expect(verdicts.filter(v => v.verdict === 'exceeds_noise').length).toBeLessThanOrEqual(2)
+    // With honest standard errors each change exceeds 1.96 SE with probability 5 %. Site ids (and so the
+    // random streams) are new on every test run, so the count varies from run to run: of 20 rows, 6 or
+    // more exceed by chance with probability 3.3e-4 (binomial B(20, 0.05), hand-worked), while standard
+    // errors half their honest size would make about half the rows exceed.
+    expect(verdicts.filter(v => v.verdict === 'exceeds_noise').length).toBeLessThanOrEqual(5)
   }, 300_000)
 
   it('the same inputs and seed twice: results are identical, and said to be', async () => {
