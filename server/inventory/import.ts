@@ -7,10 +7,15 @@ import type { Database } from '../db'
 import { portfolioSites, siteStructures, sites, tankComponents, tanks } from '../db/schema'
 import type { SiteRecord, StructureRecord, TankRecord } from '../../shared/schemas/inventory'
 import type { RowError, SiteRow, StructureRow, TankRow, ValidatedFile } from './rows'
+import { csvFormatInWords } from './workbook'
 
 export type RowStatus = 'new' | 'changed' | 'unchanged'
 export interface Counts { new: number, changed: number, unchanged: number }
-export interface ImportSummary { rows: number, sheets: string[], sites: Counts, tanks: Counts, structures: Counts, errors: number }
+export interface ImportSummary {
+  rows: number, sheets: string[], sites: Counts, tanks: Counts, structures: Counts, errors: number
+  /** How a CSV file was read, in words ("CSV, semicolon-separated, decimal commas, Windows-1252 text"); absent for workbooks. */
+  readAs?: string
+}
 
 export interface ImportPlan {
   summary: ImportSummary
@@ -51,7 +56,7 @@ export async function planImport(db: Database, organisationId: string, file: Val
   const tankByKey = new Map(existingTanks.map(t => [key(externalBySiteId.get(t.siteId)!, t.externalId), t]))
   const structureByKey = new Map(existingStructures.map(s => [key(externalBySiteId.get(s.siteId)!, s.externalId), s]))
 
-  const summary: ImportSummary = { rows: file.rowCount, sheets: file.sheets, sites: emptyCounts(), tanks: emptyCounts(), structures: emptyCounts(), errors: 0 }
+  const summary: ImportSummary = { rows: file.rowCount, sheets: file.sheets, sites: emptyCounts(), tanks: emptyCounts(), structures: emptyCounts(), errors: 0, ...(file.csv ? { readAs: csvFormatInWords(file.csv) } : {}) }
 
   // Sites: each external id once in the file.
   const fileSiteRow = new Map<string, number>()
@@ -154,6 +159,15 @@ export async function applyImport(tx: Database, organisationId: string, plan: Im
   }
 
   const writeTanks = plan.tanks.filter(t => t.status !== 'unchanged')
+  // Tags may move between tanks of one site in one file (two tanks swap tags): the unique index is
+  // checked row by row, so the tags that change are first parked on a placeholder no tag can equal
+  // (the tank's own id), then written. The plan has checked that the final tags are unique.
+  const retagged = writeTanks.filter(t => t.status === 'changed')
+  for (let i = 0; i < retagged.length; i += CHUNK) {
+    const wanted = sql.join(retagged.slice(i, i + CHUNK).map(t => sql`(${siteIds.get(t.siteExternalId)!}::uuid, ${t.record.externalId}::text, ${t.record.tag}::text)`), sql`, `)
+    await tx.execute(sql`update tanks set tag = 'moving ' || tanks.id::text from (values ${wanted}) as w(site_id, external_id, tag)
+      where tanks.site_id = w.site_id and tanks.external_id = w.external_id and tanks.tag <> w.tag`)
+  }
   for (let i = 0; i < writeTanks.length; i += CHUNK) {
     const chunk = writeTanks.slice(i, i + CHUNK)
     const rows = await tx.insert(tanks).values(chunk.map(t => tankValues(siteIds.get(t.siteExternalId)!, t.record)))

@@ -4,7 +4,7 @@ import type { z } from 'zod'
 import { COMPONENT_CLASSES, CONTENTS_LABELS, GROUNDING_LABELS, MATERIAL_LABELS, STRUCTURE_LABELS, siteSchema, structureSchema, tankSchema, type ComponentClass, type SiteRecord, type StructureRecord, type TankRecord } from '../../shared/schemas/inventory'
 import { inWords } from '../../shared/schemas/messages'
 import { SHEET_COLUMNS, SHEET_NAMES, type ColumnSpec, type SheetName } from '../../shared/inventory-layout'
-import type { ParsedFile, RawCell } from './workbook'
+import type { CsvFormat, ParsedFile, RawCell } from './workbook'
 
 export interface RowError { sheet: SheetName | 'File', row: number, column: string, message: string }
 
@@ -20,6 +20,8 @@ export interface ValidatedFile {
   sheets: SheetName[]
   rowCount: number
   errors: RowError[]
+  /** How a CSV file was read (absent for workbooks). */
+  csv?: CsvFormat
 }
 
 const UNIT_WORDS = new Set(['ft', 'feet', 'foot', 'in', 'inch', 'inches', 'cm', 'mm', 'km', 'mi', 'mile', 'miles', 'yd', 'f', 'degf', 'fahrenheit', 'k', 'a', 'ka', 'm', 'deg', 'rad', 'mi2', 'ft2', 'pct', 'percent', 'usd', 'eur', 'gbp'])
@@ -143,7 +145,7 @@ const headerByField = (sheet: SheetName) => new Map(SHEET_COLUMNS[sheet].map(s =
 
 /** Every row of every sheet the file holds → records, with all the row-level errors found. */
 export function validateFile(file: ParsedFile): ValidatedFile {
-  const out: ValidatedFile = { sites: [], tanks: [], structures: [], sheets: [], rowCount: 0, errors: [] }
+  const out: ValidatedFile = { sites: [], tanks: [], structures: [], sheets: [], rowCount: 0, errors: [], ...(file.csv ? { csv: file.csv } : {}) }
   if (file.kind === 'xlsx') {
     for (const name of SHEET_NAMES) {
       if (!file.sheets[name]) out.errors.push({ sheet: name, row: 0, column: '', message: `The workbook has no sheet named ${name}. Start from the template; leave a sheet empty (header row only) if you have nothing for it.` })

@@ -2,6 +2,7 @@
 // and the first step of an import — the raw cells of each sheet. No Nuxt imports: the benchmark and
 // the seeder use it too.
 import ExcelJS from 'exceljs'
+import iconv from 'iconv-lite'
 import { neutraliseFormula } from '../../shared/csv'
 import { MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, SHEET_COLUMNS, SHEET_NAMES, type ColumnSpec, type SheetName } from '../../shared/inventory-layout'
 import { workbookBytes } from '../utils/downloads'
@@ -27,7 +28,16 @@ export interface RawRow { rowNumber: number, cells: RawCell[] }
 export interface RawSheet { headers: string[], rows: RawRow[] }
 export type RawWorkbook = Partial<Record<SheetName, RawSheet>>
 
-export interface ParsedFile { kind: 'xlsx' | 'csv', sheets: RawWorkbook }
+/** How a CSV file was read: separator, text encoding and decimal mark (shown with the preview). */
+export interface CsvFormat { separator: ',' | ';' | '\t', encoding: 'UTF-8' | 'UTF-16' | 'Windows-1252', decimalComma: boolean }
+
+/** The format in words, for the preview: "CSV, semicolon-separated, decimal commas, Windows-1252 text". */
+export function csvFormatInWords(f: CsvFormat): string {
+  const sep = f.separator === ',' ? 'comma-separated' : f.separator === ';' ? 'semicolon-separated' : 'tab-separated'
+  return `CSV, ${sep}, ${f.decimalComma ? 'decimal commas' : 'decimal points'}, ${f.encoding} text`
+}
+
+export interface ParsedFile { kind: 'xlsx' | 'csv', sheets: RawWorkbook, csv?: CsvFormat }
 
 const ZIP_MAGIC = [0x50, 0x4b, 0x03, 0x04]
 const OLE_MAGIC = [0xd0, 0xcf, 0x11, 0xe0]
@@ -49,9 +59,45 @@ export async function readInventoryFile(data: Buffer, fileName: string): Promise
   if (!lower.endsWith('.csv') && !lower.endsWith('.txt')) {
     throw new ImportFileError('Upload an .xlsx workbook (from the template) or a .csv file. This file is neither.')
   }
-  if (data.includes(0)) throw new ImportFileError('This file is not a text CSV file (it contains binary data). Upload an .xlsx workbook or a .csv file.')
-  const text = data.toString('utf8').replace(/^\uFEFF/, '')
-  return { kind: 'csv', sheets: readCsv(text) }
+  const { text, encoding } = decodeCsvText(data)
+  const { sheets, separator, decimalComma } = readCsv(text)
+  return { kind: 'csv', sheets, csv: { separator, encoding, decimalComma } }
+}
+
+const UTF8_BOM = [0xef, 0xbb, 0xbf]
+const UTF16LE_BOM = [0xff, 0xfe]
+const UTF16BE_BOM = [0xfe, 0xff]
+/** C0 controls other than tab, line feed and carriage return, and the C1 controls: never in a name. */
+// eslint-disable-next-line no-control-regex -- finding control characters is the point
+const CONTROL_CHARACTERS = /[\u0000-\u0008\u000B\u000C\u000E-\u001F\u007F-\u009F]/
+
+/**
+ * The text of a CSV file as spreadsheets write it: UTF-8 with or without a byte-order mark, UTF-16
+ * with its mark ("Unicode text"), or — when the bytes are not valid UTF-8 — Windows-1252 (the
+ * Western European code page, a superset of Latin-1's printable characters). Text that decodes to
+ * control characters either way is refused: reading it would garble names.
+ */
+export function decodeCsvText(data: Uint8Array): { text: string, encoding: CsvFormat['encoding'] } {
+  const refuse = () => new ImportFileError('This file is not a text CSV file in UTF-8, UTF-16 or Windows-1252 (Western European): it holds binary data or control characters that no spreadsheet writes in text. Save it from the spreadsheet as "CSV UTF-8" and upload it again.')
+  let text: string
+  let encoding: CsvFormat['encoding']
+  if (startsWith(data, UTF16LE_BOM) || startsWith(data, UTF16BE_BOM)) {
+    text = new TextDecoder(data[0] === 0xff ? 'utf-16le' : 'utf-16be').decode(data.subarray(2))
+    encoding = 'UTF-16'
+  } else {
+    const body = startsWith(data, UTF8_BOM) ? data.subarray(3) : data
+    try {
+      text = new TextDecoder('utf-8', { fatal: true }).decode(body)
+      encoding = 'UTF-8'
+    } catch {
+      // Node's TextDecoder reads 'windows-1252' as Latin-1 (0x80–0x9F as controls); iconv-lite has the code page.
+      text = iconv.decode(Buffer.from(body.buffer, body.byteOffset, body.byteLength), 'windows-1252')
+      if (text.includes('\uFFFD')) throw refuse() // 0x81, 0x8D, 0x8F, 0x90, 0x9D: no character in the code page
+      encoding = 'Windows-1252'
+    }
+  }
+  if (CONTROL_CHARACTERS.test(text)) throw refuse()
+  return { text, encoding }
 }
 
 // ---------------------------------------------------------------- XLSX
@@ -138,17 +184,19 @@ function toRawCell(value: unknown): RawCell {
 // ---------------------------------------------------------------- CSV
 
 /**
- * RFC 4180 fields: commas, double quotes doubled inside quoted fields, CRLF or LF line ends. A
- * record longer than `maxLineChars` or with more than `maxColumns` fields ends the reading.
+ * RFC 4180 fields: `separator` between fields (comma by default), double quotes doubled inside quoted
+ * fields, CRLF or LF line ends. A record longer than `maxLineChars` or with more than `maxColumns`
+ * fields ends the reading.
  */
-export function parseCsv(text: string, limits: { maxLineChars: number, maxColumns: number } = READ_LIMITS): string[][] {
+export function parseCsv(text: string, limits: { maxLineChars: number, maxColumns: number } = READ_LIMITS, separator: CsvFormat['separator'] = ','): string[][] {
   const rows: string[][] = []
   let row: string[] = []
   let field = ''
   let quoted = false
   let recordStart = 0
+  const separatorName = separator === ',' ? 'commas' : separator === ';' ? 'semicolons' : 'tabs'
   const tooLong = () => new ImportFileError(`Line ${rows.length + 1} is longer than ${limits.maxLineChars / 1024} kB, the limit for one record. Is this really a CSV file of sites, tanks or structures?`)
-  const tooWide = () => new ImportFileError(`Line ${rows.length + 1} has more than ${limits.maxColumns} columns, the limit; the template's sheets have about 30. Check the separator (commas) and the quotes.`)
+  const tooWide = () => new ImportFileError(`Line ${rows.length + 1} has more than ${limits.maxColumns} columns, the limit; the template's sheets have about 30. Check the separator (${separatorName}) and the quotes.`)
   for (let i = 0; i < text.length; i++) {
     const c = text[i]!
     if (i - recordStart > limits.maxLineChars) throw tooLong()
@@ -157,7 +205,7 @@ export function parseCsv(text: string, limits: { maxLineChars: number, maxColumn
         if (text[i + 1] === '"') { field += '"'; i++ } else quoted = false
       } else field += c
     } else if (c === '"' && field === '') quoted = true
-    else if (c === ',') {
+    else if (c === separator) {
       row.push(field); field = ''
       if (row.length >= limits.maxColumns) throw tooWide()
     } else if (c === '\n' || c === '\r') {
@@ -170,15 +218,54 @@ export function parseCsv(text: string, limits: { maxLineChars: number, maxColumn
   return rows
 }
 
-function readCsv(text: string): RawWorkbook {
-  const lines = parseCsv(text)
+const KEY_COLUMNS: Record<string, SheetName> = { tank_external_id: 'Tanks', structure_external_id: 'Structures', site_external_id: 'Sites' }
+const SEPARATORS: CsvFormat['separator'][] = [',', ';', '\t']
+
+/** The header line (up to the first line end outside quotes). */
+function headerLine(text: string): string {
+  let quoted = false
+  for (let i = 0; i < text.length && i < READ_LIMITS.maxLineChars; i++) {
+    const c = text[i]!
+    if (c === '"') quoted = !quoted
+    else if (!quoted && (c === '\n' || c === '\r')) return text.slice(0, i)
+  }
+  return text.slice(0, READ_LIMITS.maxLineChars)
+}
+
+/** The separator whose split of the header names a key column of the template (comma, then semicolon, then tab). */
+export function detectSeparator(text: string): CsvFormat['separator'] | null {
+  const header = headerLine(text)
+  for (const sep of SEPARATORS) {
+    const cells = parseCsv(header, READ_LIMITS, sep)[0] ?? []
+    if (cells.some(h => h.trim().toLowerCase() in KEY_COLUMNS)) return sep
+  }
+  return null
+}
+
+/** A number written with a decimal comma: 12,5 · -0,75 · 1.234,5 (dots then group thousands). */
+const DECIMAL_COMMA = /^[-+]?(\d+|\d{1,3}(\.\d{3})+),\d+$/
+const DOT_THOUSANDS = /^[-+]?\d{1,3}(\.\d{3})+$/
+
+function readCsv(text: string): { sheets: RawWorkbook, separator: CsvFormat['separator'], decimalComma: boolean } {
+  const separator = detectSeparator(text)
+  if (!separator) {
+    throw new ImportFileError('The CSV header row does not match the Sites, Tanks or Structures layout of the template: it needs site_external_id (Sites), tank_external_id (Tanks) or structure_external_id (Structures), with the columns separated by commas, semicolons or tabs.')
+  }
+  const lines = parseCsv(text, READ_LIMITS, separator)
   const headers = (lines[0] ?? []).map(h => h.trim())
   const lowered = headers.map(h => h.toLowerCase())
-  const sheet: SheetName | null = lowered.includes('tank_external_id') ? 'Tanks'
-    : lowered.includes('structure_external_id') ? 'Structures'
-      : lowered.includes('site_external_id') ? 'Sites' : null
-  if (!sheet) {
-    throw new ImportFileError('The CSV header row does not match the Sites, Tanks or Structures layout of the template: it needs site_external_id (Sites), tank_external_id (Tanks) or structure_external_id (Structures).')
+  const sheet: SheetName = lowered.includes('tank_external_id') ? 'Tanks' : lowered.includes('structure_external_id') ? 'Structures' : 'Sites'
+  // Semicolon files come from spreadsheets set to a decimal comma: when a number column holds one,
+  // the file's numbers are read that way (12,5 → 12.5, 1.234,5 → 1234.5); otherwise dots are decimals.
+  const kinds = new Map(SHEET_COLUMNS[sheet].map(c => [c.header, c.kind]))
+  const numeric = lowered.map(h => kinds.get(h) === 'number' || kinds.get(h) === 'integer')
+  const decimalComma = separator !== ',' && lines.slice(1).some(cells => cells.some((c, k) => numeric[k] && DECIMAL_COMMA.test(c.trim())))
+  const asNumber = (c: string, k: number): string => {
+    if (!decimalComma || !numeric[k]) return c
+    const t = c.trim()
+    if (DECIMAL_COMMA.test(t)) return t.replace(/\./g, '').replace(',', '.')
+    if (DOT_THOUSANDS.test(t)) return t.replace(/\./g, '')
+    return c
   }
   const rows: RawRow[] = []
   for (let i = 1; i < lines.length; i++) {
@@ -186,9 +273,9 @@ function readCsv(text: string): RawWorkbook {
     if (cells.every(c => c.trim() === '')) continue
     if (rows.length >= MAX_IMPORT_ROWS) throw new ImportFileError(`The file has more than ${MAX_IMPORT_ROWS.toLocaleString('en-GB')} rows; the limit is ${MAX_IMPORT_ROWS.toLocaleString('en-GB')}. Split it into several files.`)
     // A CSV cell starting with "=" is what a spreadsheet would run as a formula.
-    rows.push({ rowNumber: i + 1, cells: cells.map(c => (c.trim() === '' ? null : c.trimStart().startsWith('=') ? { formula: c.trim().slice(1) } : c)) })
+    rows.push({ rowNumber: i + 1, cells: cells.map((c, k) => (c.trim() === '' ? null : c.trimStart().startsWith('=') ? { formula: c.trim().slice(1) } : asNumber(c, k))) })
   }
-  return { [sheet]: { headers, rows } }
+  return { sheets: { [sheet]: { headers, rows } }, separator, decimalComma }
 }
 
 // ---------------------------------------------------------------- writing

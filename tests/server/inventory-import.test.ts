@@ -106,6 +106,42 @@ describe('import of a good file', () => {
   })
 })
 
+describe('tags that move between tanks, CSV files as spreadsheets write them', () => {
+  it('two tanks of a site swap tags in one file (and three rotate): the import commits and each tank has its new tag', async () => {
+    const swap = await fillTemplate(template, { ...GOOD, Tanks: [tankRow('IM-1', 'IM-1-T1', 'TK-2'), tankRow('IM-1', 'IM-1-T2', 'TK-1', { x_m: 9 }), GOOD.Tanks![2]!] })
+    const p = await preview(swap)
+    expect(p.errors).toEqual([]) // the final tags are unique within the site (the rule the import checks)
+    expect(p.summary.tanks).toEqual({ new: 0, changed: 2, unchanged: 1 })
+    const res = await commit(p.id)
+    expect(res.status, await res.clone().text()).toBe(200)
+    const tags = async () => Object.fromEntries((await pool.query(`SELECT t.external_id, t.tag FROM tanks t JOIN sites s ON s.id = t.site_id WHERE s.organisation_id = $1 AND s.external_id = 'IM-1' ORDER BY 1`, [org])).rows.map(r => [r.external_id, r.tag]))
+    expect(await tags()).toEqual({ 'IM-1-T1': 'TK-2', 'IM-1-T2': 'TK-1' })
+
+    // A third tank joins and the three tags rotate: T1 → TK-3 (new), T2 → TK-2, T3 → TK-1.
+    const rotate = await fillTemplate(template, { ...GOOD, Tanks: [tankRow('IM-1', 'IM-1-T1', 'TK-3'), tankRow('IM-1', 'IM-1-T2', 'TK-2', { x_m: 9 }), tankRow('IM-1', 'IM-1-T3', 'TK-1', { x_m: -9 }), GOOD.Tanks![2]!] })
+    const r = await preview(rotate)
+    expect(r.errors).toEqual([])
+    expect((await commit(r.id)).status).toBe(200)
+    expect(await tags()).toEqual({ 'IM-1-T1': 'TK-3', 'IM-1-T2': 'TK-2', 'IM-1-T3': 'TK-1' })
+    // Back to the file's original tags for the tests that follow.
+    await pool.query(`DELETE FROM tanks WHERE external_id = 'IM-1-T3'`)
+    const back = await preview(await fillTemplate(template, GOOD))
+    expect((await commit(back.id)).status).toBe(200)
+  })
+
+  it('a semicolon-separated Windows-1252 file with decimal commas reads the same as the comma file, and the preview says how it was read', async () => {
+    const header = 'site_external_id;tank_external_id;tag;material;height_m;diameter_m;x_m;y_m;contents;flammable_vapour_space;chemical_flash_point_c;grounding;shield_rating_ka;vapour_control;static_dissipator;bonding_upgrade;replacement_value;contents_value;cleanup_cost;interruption_cost;sharp_device_count;sharp_device_height_m;grounded_pipe_count;grounded_pipe_height_m;rounded_conductor_count;rounded_conductor_height_m;carbon_fibre_count;carbon_fibre_height_m\r\n'
+    const line = 'IM-2;IM-2-T8;Bühne-8;frp;5,5;3;-12;4;chemical;yes;35;multiple;60;no;no;no;70.000,50;1000;2000;3000;1;4;;;;;;\r\n'
+    const bytes = Buffer.from([...header + line].map(ch => (ch === 'ü' ? 0xfc : ch.charCodeAt(0)))) // ü is 0xFC in Windows-1252 (WHATWG Encoding Standard index)
+    const p = await preview(bytes, 'tanks.csv', 'text/csv')
+    expect(p.errors).toEqual([])
+    expect((p.summary as { readAs?: string }).readAs).toBe('CSV, semicolon-separated, decimal commas, Windows-1252 text')
+    expect((await commit(p.id)).status).toBe(200)
+    const { rows } = await pool.query(`SELECT tag, height_m, replacement_value FROM tanks WHERE external_id = 'IM-2-T8'`)
+    expect(rows[0]).toEqual({ tag: 'Bühne-8', height_m: 5.5, replacement_value: '70000.50' }) // 70.000,50 is 70000.50 with a decimal comma (common practice)
+  })
+})
+
 describe('bad files: a clear message, nothing written', () => {
   let clean: Client
   let cleanOrg: string
