@@ -147,8 +147,10 @@ function structureValues(siteId: string, r: StructureRecord) {
 }
 
 /** Writes the plan's new and changed rows. Call inside a transaction; the plan must have no errors. */
-export async function applyImport(tx: Database, organisationId: string, plan: ImportPlan, options: { portfolioId?: string | null } = {}): Promise<void> {
+export async function applyImport(tx: Database, organisationId: string, plan: ImportPlan, options: { portfolioId?: string | null, onProgress?: (rowsWritten: number) => Promise<void> } = {}): Promise<void> {
   if (plan.errors.length > 0) throw new Error('an import with errors cannot be applied')
+  let written = 0
+  const wrote = async (n: number) => { written += n; if (options.onProgress) await options.onProgress(written) }
   const siteIds = new Map(plan.siteIdByExternal)
   const writeSites = plan.sites.filter(s => s.status !== 'unchanged')
   for (let i = 0; i < writeSites.length; i += CHUNK) {
@@ -156,6 +158,7 @@ export async function applyImport(tx: Database, organisationId: string, plan: Im
       .onConflictDoUpdate({ target: [sites.organisationId, sites.externalId], set: excludedSet(sites, SITE_FIELDS.filter(f => f !== 'externalId')) })
       .returning({ id: sites.id, externalId: sites.externalId })
     for (const r of rows) siteIds.set(r.externalId, r.id)
+    await wrote(rows.length)
   }
 
   const writeTanks = plan.tanks.filter(t => t.status !== 'unchanged')
@@ -178,12 +181,15 @@ export async function applyImport(tx: Database, organisationId: string, plan: Im
     await tx.delete(tankComponents).where(inArray(tankComponents.tankId, ids))
     const components = chunk.flatMap(t => t.record.components.map(c => ({ tankId: idByKey.get(key(siteIds.get(t.siteExternalId)!, t.record.externalId))!, ...c })))
     if (components.length > 0) await tx.insert(tankComponents).values(components)
+    await wrote(chunk.length)
   }
 
   const writeStructures = plan.structures.filter(s => s.status !== 'unchanged')
   for (let i = 0; i < writeStructures.length; i += CHUNK) {
-    await tx.insert(siteStructures).values(writeStructures.slice(i, i + CHUNK).map(s => structureValues(siteIds.get(s.siteExternalId)!, s.record)))
+    const chunk = writeStructures.slice(i, i + CHUNK)
+    await tx.insert(siteStructures).values(chunk.map(s => structureValues(siteIds.get(s.siteExternalId)!, s.record)))
       .onConflictDoUpdate({ target: [siteStructures.siteId, siteStructures.externalId], set: excludedSet(siteStructures, STRUCTURE_FIELDS.filter(f => f !== 'externalId')) })
+    await wrote(chunk.length)
   }
 
   if (options.portfolioId && plan.sites.length > 0) {

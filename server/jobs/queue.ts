@@ -13,6 +13,8 @@ export const queueOptions: Record<JobName, Omit<PgBoss.Queue, 'name'>> = {
   'scenario.site': { retryLimit: 2, retryDelay: 1, expireInSeconds: Number(process.env.STORMLEDGER_CHUNK_EXPIRE_SECONDS ?? 600) },
   // A batch's work commits in one transaction: a worker that dies mid-batch leaves nothing half-done.
   'storm.batch': { retryLimit: 4, retryDelay: 2, retryBackoff: true, expireInSeconds: 600 },
+  // One transaction per attempt: a worker that dies mid-import leaves nothing written; the next attempt starts over.
+  'inventory.import': { retryLimit: 2, retryDelay: 2, expireInSeconds: 900 },
 }
 
 let boss: PgBoss | undefined

@@ -8,6 +8,8 @@ export interface JobPayloads {
   'scenario.site': { evaluationId: string, siteId: string }
   /** A stored storm batch: assign its flashes to windows, recompute those windows, send alerts. */
   'storm.batch': { batchId: string }
+  /** A large inventory import's commit (server/inventory/background-import.ts). */
+  'inventory.import': { importId: string }
 }
 
 export type JobName = keyof JobPayloads

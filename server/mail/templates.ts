@@ -46,6 +46,35 @@ If it was not, reset your password now: ${o.resetLink}${SIGNATURE}`,
   }
 }
 
+export function importEndedMail(o: { fileName: string, outcome: { ok: true, summary: { sites: { new: number, changed: number }, tanks: { new: number, changed: number }, structures: { new: number, changed: number } } } | { ok: false, message: string }, link: string }): MailContent {
+  if (!o.outcome.ok) {
+    return {
+      subject: `Import of ${o.fileName} did not go through`,
+      text: `The inventory import of ${o.fileName} did not go through; nothing of it was written.
+
+${o.outcome.message}
+
+The import page shows what happened and lets you commit it again or upload a corrected file:
+${o.link}${SIGNATURE}`,
+    }
+  }
+  const s = o.outcome.summary
+  const line = (label: string, c: { new: number, changed: number }) => `- ${label}: ${c.new.toLocaleString('en-GB')} new, ${c.changed.toLocaleString('en-GB')} changed`
+  return {
+    subject: `Import of ${o.fileName} is done`,
+    text: `The inventory import of ${o.fileName} is written, all of it in one go:
+
+${line('Sites', s.sites)}
+${line('Tanks', s.tanks)}
+${line('Structures', s.structures)}
+
+The import page has the details:
+${o.link}
+
+Run a new simulation to see the imported sites and tanks in the results.${SIGNATURE}`,
+  }
+}
+
 export function stormAlertMail(o: { organisationName: string, windowLabel: string, threshold: number, tanks: Array<{ tag: string, siteName: string, ignition: number }>, link: string }): MailContent {
   const lines = o.tanks.slice(0, 25).map(t => `- ${t.siteName} · ${t.tag}: ${(100 * t.ignition).toFixed(1)} % probability of a lightning fire`)
   const more = o.tanks.length > 25 ? `\n…and ${o.tanks.length - 25} more in the report.` : ''

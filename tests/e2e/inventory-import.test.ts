@@ -7,6 +7,7 @@ import { signInPage } from '../support/browser-session'
 import { Client, createMember, createOrganisation } from '../support/accounts'
 import { testPool } from '../support/db'
 import { downloadTemplate, fillTemplate, siteRow, structureRow, tankRow } from '../support/inventory'
+import { SHEET_COLUMNS } from '../../shared/inventory-layout'
 
 const pool = testPool()
 let browser: Browser
@@ -67,6 +68,36 @@ describe('inventory import in the browser', () => {
     const pxPerM = Math.abs(xs[1]! - xs[0]!) / 10
     expect(Math.abs(mastX - Math.min(...xs)) / pxPerM).toBeCloseTo(25, 5)
     await saveScreenshot(page, 'inventory-site-plan')
+    expect(outsideRequests).toEqual([])
+    await context.close()
+  })
+
+  it('a large file is imported in the background: progress on the page, and a reload comes back to it until it is done', async () => {
+    const base = inject('baseUrl')
+    const org = await createOrganisation(pool, 'Browser Background Import Operator')
+    const { email } = await createMember(pool, org, 'analyst')
+    const headers = SHEET_COLUMNS.Sites.map(c => c.header)
+    const lines = [headers.join(',')]
+    for (let i = 0; i < 6000; i++) { const row = siteRow(`BIG-${i}`); lines.push(headers.map(h => String(row[h] ?? '')).join(',')) }
+    const { page, context, outsideRequests } = await openGuardedPage(browser)
+    await signInPage(page, base, email)
+    await page.goto(`${base}/inventory/import`, { waitUntil: 'networkidle' })
+    await page.getByTestId('import-file').setInputFiles({ name: 'big-sites.csv', mimeType: 'text/csv', buffer: Buffer.from(`${lines.join('\r\n')}\r\n`) })
+    await page.getByTestId('import-upload').click()
+    await page.getByTestId('import-counts').waitFor({ state: 'visible' })
+    expect(await page.getByTestId('import-read-as').innerText()).toMatch(/CSV, comma-separated, decimal points, UTF-8 text/)
+    await page.getByTestId('import-commit').click()
+    await page.locator('[data-testid="import-background"], [data-testid="import-step-done"]').first().waitFor({ state: 'visible' })
+    if (await page.getByTestId('import-background').isVisible()) {
+      expect(await page.getByTestId('import-background').innerText()).toMatch(/Rows checked against the inventory: [\d,]+ of 6,000 rows/)
+      await saveScreenshot(page, 'inventory-import-background')
+    }
+    expect(page.url()).toMatch(/[?&]import=[0-9a-f-]{36}/) // the address names the import
+    await page.reload({ waitUntil: 'networkidle' })
+    await page.getByTestId('import-step-done').waitFor({ state: 'visible', timeout: 90_000 })
+    expect(await page.getByTestId('import-step-done').innerText()).toMatch(/Sites: 6,000 new, 0 changed/)
+    const { rows } = await pool.query(`SELECT count(*)::int AS n FROM sites WHERE organisation_id = $1`, [org])
+    expect(rows[0].n).toBe(6000)
     expect(outsideRequests).toEqual([])
     await context.close()
   })

@@ -16,7 +16,7 @@ export const componentClass = pgEnum('component_class', ['sharp_device', 'ground
 export const structureKind = pgEnum('structure_kind', ['mast', 'stack', 'ogw_support', 'building'])
 /** Informational only: grounding does not change induced sparking (MODEL.md §4). */
 export const tankGrounding = pgEnum('tank_grounding', ['none', 'single', 'multiple'])
-export const importStatus = pgEnum('inventory_import_status', ['previewed', 'committed', 'rejected'])
+export const importStatus = pgEnum('inventory_import_status', ['previewed', 'committing', 'committed', 'failed', 'rejected'])
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
 const money = (name: string) => numeric(name, { ...MONEY_NUMERIC.inventory, mode: 'number' })
@@ -162,6 +162,9 @@ export const siteStructures = pgTable('site_structures', {
 ])
 
 /** One uploaded inventory file: the original bytes, what the preview found, and whether it was committed. */
+/** Rows of the file, rows checked against the inventory, rows to write (new or changed) and rows written so far. */
+export interface ImportProgress { rowsTotal: number, rowsChecked: number, rowsToWrite: number, rowsWritten: number }
+
 export const inventoryImports = pgTable('inventory_imports', {
   id: uuid('id').primaryKey().defaultRandom(),
   organisationId: uuid('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
@@ -177,9 +180,19 @@ export const inventoryImports = pgTable('inventory_imports', {
   /** Row-level errors (sheet, row, column, message); capped at 1,000. */
   errors: jsonb('errors').notNull(),
   committedAt: timestamp('committed_at', { withTimezone: true }),
+  /** Who asked for the commit (mailed when a background commit ends). */
+  committedBy: uuid('committed_by').references(() => users.id, { onDelete: 'set null' }),
+  /** Portfolio that the commit adds the file's sites to, if any (kept for the background job). */
+  commitPortfolioId: uuid('commit_portfolio_id').references(() => portfolios.id, { onDelete: 'set null' }),
+  /** A commit's progress (background commits update it as they go). */
+  progress: jsonb('progress').$type<ImportProgress>(),
+  /** Why a background commit failed, in words. */
+  failureMessage: text('failure_message'),
   ...timestamps,
 }, t => [
   index('inventory_imports_org_idx').on(t.organisationId, t.createdAt),
+  index('inventory_imports_committed_by_idx').on(t.committedBy),
+  index('inventory_imports_commit_portfolio_idx').on(t.commitPortfolioId),
   index('inventory_imports_uploaded_by_idx').on(t.uploadedBy),
   index('inventory_imports_status_idx').on(t.status),
   check('inventory_imports_size', sql`${t.sizeBytes} >= 0`),

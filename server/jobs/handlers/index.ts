@@ -10,6 +10,8 @@ import { handleRunChunk } from './run-chunk'
 import { handleScenarioSite } from './scenario-site'
 import { failStormBatch } from '../../storms/process'
 import { handleStormBatch } from './storm-batch'
+import { failBackgroundImport } from '../../inventory/background-import'
+import { handleInventoryImport } from './inventory-import'
 
 export const jobRegistry: JobRegistry = {
   'mail.send': { handler: handleMailSend, work: { pollingIntervalSeconds: 1, batchSize: 5 }, concurrency: () => 1 },
@@ -30,5 +32,10 @@ export const jobRegistry: JobRegistry = {
   'storm.batch': {
     handler: handleStormBatch, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: () => 1, beats: true,
     onAbandoned: (data, message) => failStormBatch(data.batchId, message),
+  },
+  // One large inventory import at a time, all of it in one transaction.
+  'inventory.import': {
+    handler: handleInventoryImport, work: { pollingIntervalSeconds: 0.5, batchSize: 1, includeMetadata: true }, concurrency: () => 1, beats: true,
+    onAbandoned: (data, message) => failBackgroundImport(data.importId, `The import ${message} Nothing was imported; commit it again.`),
   },
 }

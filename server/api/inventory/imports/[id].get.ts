@@ -1,4 +1,4 @@
-// GET /api/inventory/imports/:id — a stored import: its counts, row errors and status (without the file bytes).
+// GET /api/inventory/imports/:id — a stored import: its counts, row errors, status and commit progress (without the file bytes).
 import { and, eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
 import { inventoryImports } from '~~/server/db/schema'
@@ -9,6 +9,7 @@ export default defineEventHandler(async (event) => {
   const [record] = await useDb().select({
     id: inventoryImports.id, fileName: inventoryImports.fileName, sizeBytes: inventoryImports.sizeBytes, status: inventoryImports.status,
     summary: inventoryImports.summary, errors: inventoryImports.errors, createdAt: inventoryImports.createdAt, committedAt: inventoryImports.committedAt,
+    progress: inventoryImports.progress, failureMessage: inventoryImports.failureMessage,
   }).from(inventoryImports).where(and(eq(inventoryImports.id, id), eq(inventoryImports.organisationId, member.organisationId)))
   return record ?? notFound('Import')
 })
