@@ -139,7 +139,8 @@ type TankRow = { tankId: string, siteId: string, siteName: string, siteExternalI
  */
 export function siteLossesOf(windowId: string, models: { siteId: string, siteName: string, siteExternalId: string, lossModel: StormSiteLossModel }[], tankRows: readonly TankRow[], terms: Map<string, SiteTerms>) {
   const burning = new Map<string, { burning: number, expectedLossIfBurning: number }>()
-  const siteLosses: StormReportSite[] = models.map((m) => {
+  // A site whose model holds no tank that can burn is computed (nothing to lose) and not listed.
+  const siteLosses: StormReportSite[] = models.filter(m => m.lossModel.tanks.length > 0).map((m) => {
     const siteTerms = terms.get(m.siteId) ?? null
     const loss = stormSiteLoss(m.lossModel, siteTerms, { window: windowId, site: m.siteId })
     for (const t of loss.tanks) burning.set(t.tankId, t)

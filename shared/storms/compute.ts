@@ -174,7 +174,9 @@ export function computeStormWindow(index: StormSiteIndex, flashes: readonly Stor
     const acc = perSite[s]!
     if (!acc.touched) return
     const lossModel = stormSiteLossModel(ps, Float64Array.from(acc.noIgnition, none => 1 - none), negligible)
-    if (lossModel.tanks.length) sites.push({ siteId: ps.siteId, lossModel, expectedGroundUpLoss: stormSiteLoss(lossModel, null, { window: '', site: ps.siteId }).groundUp.total })
+    // Every site the flashes reached, even when none of its tanks can burn (an empty model), so a
+    // reader can tell "computed: nothing can burn" from a window computed before site losses were kept.
+    sites.push({ siteId: ps.siteId, lossModel, expectedGroundUpLoss: stormSiteLoss(lossModel, null, { window: '', site: ps.siteId }).groundUp.total })
     for (let t = 0; t < ps.nTanks; t++) {
       const direct = 1 - acc.noDirect[t]!, sparking = 1 - acc.noSpark[t]!, ignition = 1 - acc.noIgnition[t]!
       if (direct < negligible && sparking < negligible && ignition < negligible) continue

@@ -357,3 +357,22 @@ function expectedOccurrenceNet(deductible: number, interruptionDeductible: numbe
   }
   return e
 }
+
+describe('a storm computed before per-site losses were kept', () => {
+  it('still reads: its stored ground-up figure, insured "not computed" (never 0), the totals count it', async () => {
+    const list = await (await underwriter.get('/api/storms/windows')).json() as { id: string, startsAt: string }[]
+    const june = list.find(w => w.startsAt.startsWith('2026-06-14'))!
+    // What a window computed by the former release holds: tank results, no site rows.
+    await pool.query(`DELETE FROM storm_site_results WHERE window_id = $1`, [june.id])
+    const stored = (await pool.query(`SELECT ignition, fire_loss_property_damage::float8 + fire_loss_interruption::float8 AS fire FROM storm_tank_results WHERE window_id = $1`, [june.id])).rows as { ignition: number, fire: number }[]
+    const res = await underwriter.get(`/api/storms/windows/${june.id}`)
+    expect(res.status).toBe(200)
+    const report = await res.json() as { siteLosses: { terms: string, expectedInsuredLoss: number | null, expectedGroundUpLoss: number }[], totals: { sitesNotComputed: number, sitesWithTerms: number, expectedGroundUpLoss: number } }
+    expect(report.siteLosses).toHaveLength(1)
+    expect(report.siteLosses[0]).toMatchObject({ terms: 'not computed', expectedInsuredLoss: null })
+    // The former convention on the stored columns: Σ P(fire) × the expected loss of a fire starting at the tank.
+    expect(report.totals.expectedGroundUpLoss).toBeCloseTo(stored.reduce((s, r) => s + r.ignition * r.fire, 0), 2)
+    expect(report.totals).toMatchObject({ sitesNotComputed: 1, sitesWithTerms: 0 })
+    expect((await underwriter.get(`/api/storms/windows/${june.id}/export`)).status).toBe(200)
+  })
+})
