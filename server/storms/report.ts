@@ -83,7 +83,7 @@ export async function stormReport(member: Member, windowId: string): Promise<Sto
     .from(stormSiteResults).innerJoin(sites, eq(sites.id, stormSiteResults.siteId)).where(eq(stormSiteResults.windowId, windowId)).orderBy(asc(sites.name)))
     .filter(r => !shared || shared.has(r.siteId))
   const terms = await currentTerms(db, member.organisationId, [...new Set([...visible.map(r => r.siteId), ...modelRows.map(r => r.siteId)])])
-  const { siteLosses, burning } = siteLossesOf(windowId, modelRows.map(r => ({ ...r, lossModel: r.lossModel as StormSiteLossModel })), visible, terms)
+  const { siteLosses, burning } = siteLossesOf(`${windowId}|${window.computedAt?.toISOString() ?? ''}`, windowId, modelRows.map(r => ({ ...r, lossModel: r.lossModel as StormSiteLossModel })), visible, terms)
   let expectedFires = 0
   const tankRows = visible.map((r) => {
     expectedFires += r.ignition
@@ -130,6 +130,20 @@ export async function stormReport(member: Member, windowId: string): Promise<Sto
   }
 }
 
+// A site's figure depends only on its stored model (fixed while the window's computedAt is) and the
+// terms; a report read again, or by many readers, reuses it (the exact and Monte Carlo figures take
+// tens of milliseconds a site).
+const siteLossCache = new Map<string, ReturnType<typeof stormSiteLoss>>()
+function cachedSiteLoss(key: string, compute: () => ReturnType<typeof stormSiteLoss>) {
+  let hit = siteLossCache.get(key)
+  if (!hit) {
+    hit = compute()
+    if (siteLossCache.size >= 5000) siteLossCache.clear()
+    siteLossCache.set(key, hit)
+  }
+  return hit
+}
+
 type TankRow = { tankId: string, siteId: string, siteName: string, siteExternalId: string, ignition: number, fireLossPropertyDamage: number, fireLossInterruption: number }
 
 /**
@@ -137,12 +151,12 @@ type TankRow = { tankId: string, siteId: string, siteName: string, siteExternalI
  * or "no terms"; a window computed before site losses were stored gives its stored ground-up figure
  * and no insured figure. Also each tank's P(burns) and expected loss if it burns.
  */
-export function siteLossesOf(windowId: string, models: { siteId: string, siteName: string, siteExternalId: string, lossModel: StormSiteLossModel }[], tankRows: readonly TankRow[], terms: Map<string, SiteTerms>) {
+export function siteLossesOf(cacheKey: string, windowId: string, models: { siteId: string, siteName: string, siteExternalId: string, lossModel: StormSiteLossModel }[], tankRows: readonly TankRow[], terms: Map<string, SiteTerms>) {
   const burning = new Map<string, { burning: number, expectedLossIfBurning: number }>()
   // A site whose model holds no tank that can burn is computed (nothing to lose) and not listed.
   const siteLosses: StormReportSite[] = models.filter(m => m.lossModel.tanks.length > 0).map((m) => {
     const siteTerms = terms.get(m.siteId) ?? null
-    const loss = stormSiteLoss(m.lossModel, siteTerms, { window: windowId, site: m.siteId })
+    const loss = cachedSiteLoss(`${cacheKey}|${m.siteId}|${JSON.stringify(siteTerms)}`, () => stormSiteLoss(m.lossModel, siteTerms, { window: windowId, site: m.siteId }))
     for (const t of loss.tanks) burning.set(t.tankId, t)
     return {
       siteId: m.siteId, siteName: m.siteName, siteExternalId: m.siteExternalId, probabilityOfFire: loss.probabilityOfFire,

@@ -166,6 +166,9 @@ export function burningSetProbabilities(model: Pick<StormSiteLossModel, 'tanks' 
   return out
 }
 
+/** Damage-ratio quantiles at the midpoint levels, per distribution and node count (read only once made). */
+const quantileLevels = new Map<string, Float64Array>()
+
 export interface LevelTable { pd: Float64Array, bi: Float64Array }
 
 /**
@@ -176,8 +179,15 @@ export interface LevelTable { pd: Float64Array, bi: Float64Array }
 export function levelTables(model: Pick<StormSiteLossModel, 'tanks' | 'damageRatio'>, nodes: number): LevelTable[] {
   const quantiles = {} as Record<LossComponent, Float64Array>
   for (const c of LOSS_COMPONENTS) {
-    const q = new Float64Array(nodes)
-    for (let k = 0; k < nodes; k++) q[k] = damageRatioQuantile(model.damageRatio[c], (k + 0.5) / nodes)
+    const ratio = model.damageRatio[c]
+    const key = `${ratio.mean}|${ratio.sd}|${nodes}`
+    let q = quantileLevels.get(key)
+    if (!q) {
+      q = new Float64Array(nodes)
+      for (let k = 0; k < nodes; k++) q[k] = damageRatioQuantile(ratio, (k + 0.5) / nodes)
+      if (quantileLevels.size > 64) quantileLevels.clear()
+      quantileLevels.set(key, q)
+    }
     quantiles[c] = q
   }
   return model.tanks.map(({ values }) => {
