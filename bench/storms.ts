@@ -47,7 +47,7 @@ line('window computed', `${run.cpu.toFixed(2)} s CPU (${run.wall.toFixed(2)} s w
 line('ground flashes / cloud records left out', `${r.groundFlashes.toLocaleString('en-GB')} / ${r.cloudRecordsLeftOut.toLocaleString('en-GB')}`)
 line('flash–site pairs after the index', `${r.pairs.toLocaleString('en-GB')} (of ${(r.groundFlashes * SITES).toLocaleString('en-GB')} without it)`)
 line('flashes that reached a site', r.flashesNearSites.toLocaleString('en-GB'))
-const totals = windowTotals(r.tanks)
+const totals = windowTotals(r)
 line('tanks with a probability above 1e-9', r.tanks.length.toLocaleString('en-GB'))
 line('expected fires in the window', totals.expectedFires.toFixed(3))
 line('highest P(fire) of a tank', (r.tanks[0]?.ignition ?? 0).toFixed(4))

@@ -12,7 +12,7 @@ import { useDb, type Database } from '../db'
 import { withClientTransaction } from '../db/transaction'
 import {
   assumptionSets, assumptionSetVersions, memberships, organisations, sites, stormAlerts, stormAlertSettings, stormAlertSubscribers,
-  stormBatches, stormFlashes, stormTankResults, stormWindows, tanks, users,
+  stormBatches, stormFlashes, stormSiteResults, stormTankResults, stormWindows, tanks, users,
 } from '../db/schema'
 import { queueOptions, useBoss } from '../jobs/queue'
 import { stormAlertMail } from '../mail/templates'
@@ -115,10 +115,16 @@ export async function computeWindow(tx: Database, organisationId: string, window
   const index = new StormSiteIndex(snapshot.map(s => ({ latDeg: s.facts.latitudeDeg, lonDeg: s.facts.longitudeDeg, input: s.site })), assumptions)
   const records: StormFlashRecord[] = flashes.map(f => ({ id: f.id, latDeg: f.latDeg, lonDeg: f.lonDeg, peakCurrentKa: f.peakCurrentKa, type: f.type, locationErrorKm: f.locationErrorKm }))
   const result = computeStormWindow(index, records)
-  const totals = windowTotals(result.tanks)
+  const totals = windowTotals(result)
   await tx.delete(stormTankResults).where(eq(stormTankResults.windowId, windowId))
   for (let i = 0; i < result.tanks.length; i += 1000) {
     await tx.insert(stormTankResults).values(result.tanks.slice(i, i + 1000).map(t => ({ windowId, ...t })))
+  }
+  await tx.delete(stormSiteResults).where(eq(stormSiteResults.windowId, windowId))
+  for (let i = 0; i < result.sites.length; i += 500) {
+    await tx.insert(stormSiteResults).values(result.sites.slice(i, i + 500).map(s => ({
+      windowId, siteId: s.siteId, lossModel: s.lossModel, expectedGroundUpLoss: Math.round(s.expectedGroundUpLoss * 100) / 100,
+    })))
   }
   const times = flashes.map(f => f.occurredAt.getTime())
   await tx.update(stormWindows).set({

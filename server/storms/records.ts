@@ -48,7 +48,11 @@ export async function parseStormBatch(body: AsyncIterable<Buffer>): Promise<Stor
       if (line.trim() === '') continue
       if (!columns) {
         const header = readLightningHeader(line)
-        if (header.problems.length) return fail(`Line 1: the columns are not right. ${header.problems.join(' ')}`)
+        if (header.problems.length) {
+          errorCount++
+          lineErrors.push({ line: lineNo, message: `The columns are not right. ${header.problems.join(' ')}` })
+          return fail(`Line ${lineNo}: the columns are not right. ${header.problems.join(' ')}`)
+        }
         columns = header.columns
         continue
       }

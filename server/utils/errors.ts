@@ -18,9 +18,12 @@ export class AppError extends Error {
   }
 }
 
-/** Throws the error answer: status, readable message and, when given, `data.fields`. */
-export function fail(statusCode: number, message: string, fields?: FieldMessages): never {
-  throw createError({ statusCode, statusMessage: message, data: fields ? { fields } : undefined })
+/**
+ * Throws the error answer: status, readable message and, when given, `data.fields`; `counts` adds
+ * figures beside them (e.g. `errorCount` when only the first of many problems are listed).
+ */
+export function fail(statusCode: number, message: string, fields?: FieldMessages, counts?: Record<string, number>): never {
+  throw createError({ statusCode, statusMessage: message, data: fields || counts ? { ...(fields ? { fields } : {}), ...counts } : undefined })
 }
 
 /** A problem with one field: its message is the answer's message and the field's. */

@@ -101,7 +101,7 @@ function tankLoss(parts: Record<LossComponent, number>): TankLoss {
  * (comonotone damage: a fire severe for the shell is severe for its contents and clean-up too),
  * so each component stays within its value and the tank within its value at risk.
  */
-export function burningTankLoss(tank: TankInput, a: Pick<AssumptionSet, 'damageRatio'>, u: number): TankLoss {
+export function burningTankLoss(tank: Pick<TankInput, 'replacementValue' | 'contentsValue' | 'cleanupCost' | 'interruptionCost'>, a: Pick<AssumptionSet, 'damageRatio'>, u: number): TankLoss {
   const values = componentValues(tank)
   const parts = {} as Record<LossComponent, number>
   for (const c of LOSS_COMPONENTS) parts[c] = values[c] * damageRatioQuantile(a.damageRatio[c], u)
@@ -112,7 +112,7 @@ export function burningTankLoss(tank: TankInput, a: Pick<AssumptionSet, 'damageR
  * Expected loss of one burning tank (its own fire, no spread), per component and as PD / BI:
  * value × mean damage ratio. The storm report and the frequency mode use this figure.
  */
-export function expectedBurningTankLoss(tank: TankInput, a: Pick<AssumptionSet, 'damageRatio'>): TankLoss {
+export function expectedBurningTankLoss(tank: Pick<TankInput, 'replacementValue' | 'contentsValue' | 'cleanupCost' | 'interruptionCost'>, a: Pick<AssumptionSet, 'damageRatio'>): TankLoss {
   const values = componentValues(tank)
   const parts = {} as Record<LossComponent, number>
   for (const c of LOSS_COMPONENTS) parts[c] = values[c] * a.damageRatio[c].mean

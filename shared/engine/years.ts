@@ -13,7 +13,7 @@ import { cellBoundOf, drawCandidate } from './envelope'
 import type { SitePreparation } from './prepared'
 import { prepareSiteOnce } from './prepared'
 import { createStream, poissonDraw } from './random'
-import { burningTankLoss } from './loss'
+import { burningTankLoss, type SpreadTable } from './loss'
 import { countEstimate } from './statistics'
 import { siteRadius } from './reach'
 import { flashesPerYearOnDisc } from './flash-density'
@@ -133,7 +133,7 @@ export function simulateSiteYears(site: SiteInput, assumptions: AssumptionSet, o
  * with P(t first | some event among t…n) = p_t / (1 − Π_{l ≥ t}(1 − p_l)), the rest independently.
  * `none[t]` holds Π_{l ≥ t}(1 − p_l).
  */
-function drawOutcome(n: number, p: Float64Array, none: Float64Array, rand: UniformStream, hit: Uint8Array): void {
+export function drawOutcome(n: number, p: Float64Array, none: Float64Array, rand: UniformStream, hit: Uint8Array): void {
   none[n] = 1
   for (let t = n - 1; t >= 0; t--) none[t] = none[t + 1]! * (1 - p[t]!)
   let found = false
@@ -177,25 +177,30 @@ function recordFlash(ps: PreparedSite, attached: number, hit: Uint8Array, year: 
     lit += 1
     add(t, rand(), false)
   }
-  if (lit > 0 && ps.spread.spreadTank.length > 0) spreadFires(ps, burning, spreadRand, tally, add)
+  if (lit > 0 && ps.spread.spreadTank.length > 0) {
+    spreadFires(ps.spread, ps.nTanks, burning, spreadRand, (j) => {
+      tally.spread[j]! += 1
+      add(j, spreadRand(), true)
+    })
+  }
   burning.fill(0)
   if (started) { tally.eventYear.push(year); tally.eventPd.push(eventPd); tally.eventBi.push(eventBi) }
 }
 
 /**
  * Each tank not yet burning catches fire with 1 − Π(1 − p_ij) over the tanks i the flash set alight
- * (neighbours in index order, one draw each, then one draw for its damage).
+ * (neighbours in index order, one draw each); `onSpread(j)` then takes its further draws (the
+ * damage) from the same stream. Shared with the storm loss (shared/storms/loss.ts).
  */
-function spreadFires(ps: PreparedSite, burning: Uint8Array, spreadRand: UniformStream, tally: Tally, add: (t: number, u: number, bySpread: boolean) => void): void {
-  const n = ps.nTanks
+export function spreadFires(spread: SpreadTable, n: number, burning: Uint8Array, spreadRand: UniformStream, onSpread: (j: number) => void): void {
   const escape = new Float64Array(n).fill(1)
   let reachable = false
   for (let i = 0; i < n; i++) {
     if (burning[i] !== 1) continue
-    for (let k = ps.spread.spreadStart[i]!; k < ps.spread.spreadStart[i + 1]!; k++) {
-      const j = ps.spread.spreadTank[k]!
+    for (let k = spread.spreadStart[i]!; k < spread.spreadStart[i + 1]!; k++) {
+      const j = spread.spreadTank[k]!
       if (burning[j] === 1) continue
-      escape[j]! *= 1 - ps.spread.spreadProbability[k]!
+      escape[j]! *= 1 - spread.spreadProbability[k]!
       reachable = true
     }
   }
@@ -203,8 +208,7 @@ function spreadFires(ps: PreparedSite, burning: Uint8Array, spreadRand: UniformS
   for (let j = 0; j < n; j++) {
     if (burning[j] === 1 || escape[j] === 1) continue
     if (spreadRand() >= 1 - escape[j]!) continue
-    tally.spread[j]! += 1
-    add(j, spreadRand(), true)
+    onSpread(j)
   }
 }
 

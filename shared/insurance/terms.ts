@@ -85,6 +85,11 @@ export function occurrenceNetSplit(propertyDamage: number, businessInterruption:
   return { total, propertyDamageShare: pd + bi > 0 ? pd / (pd + bi) : 1 }
 }
 
+/** occurrenceNetSplit's total alone, without an object per call (for the storm loss's inner loops). */
+export function occurrenceNetTotal(propertyDamage: number, businessInterruption: number, terms: SiteTerms): number {
+  return cap(Math.max(0, propertyDamage - terms.occurrenceDeductible) + Math.max(0, businessInterruption - terms.interruptionDeductible), terms.occurrenceLimit)
+}
+
 /** The annual aggregate cover on a running total of occurrence-net losses. */
 export function aggregateNet(cumulative: number, terms: SiteTerms): number {
   return cap(Math.max(0, cumulative - terms.aggregateDeductible), terms.aggregateLimit)

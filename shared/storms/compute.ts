@@ -10,6 +10,7 @@ import {
   DEFAULT_STORM_QUADRATURE, degreesFor, eastNorthOf, flashTankProbabilities, type StormQuadrature,
 } from '../engine/storm'
 import type { SiteInput } from '../engine/types'
+import { stormSiteLoss, stormSiteLossModel, type StormSiteLossModel } from './loss'
 
 export interface StormSite { latDeg: number; lonDeg: number; input: SiteInput }
 
@@ -47,8 +48,17 @@ export interface StormComputeOptions {
   cellKm?: number
 }
 
+/** Per site the window reached: its loss model (stored, so each reader's terms apply when read) and ground-up loss. */
+export interface StormSiteResult {
+  siteId: string
+  lossModel: StormSiteLossModel
+  /** E[Σ loss of the tanks that burn], spread included (closed form, shared/storms/loss.ts). */
+  expectedGroundUpLoss: number
+}
+
 export interface StormComputation {
   tanks: StormTankResult[]
+  sites: StormSiteResult[]
   groundFlashes: number
   cloudRecordsLeftOut: number
   /** Ground flashes that reached at least one site. */
@@ -159,9 +169,14 @@ export function computeStormWindow(index: StormSiteIndex, flashes: readonly Stor
     if (reached) nearSites++
   }
   const tanks: StormTankResult[] = []
+  const sites: StormSiteResult[] = []
   index.prepared.forEach((ps, s) => {
     const acc = perSite[s]!
     if (!acc.touched) return
+    const lossModel = stormSiteLossModel(ps, Float64Array.from(acc.noIgnition, none => 1 - none), negligible)
+    // Every site the flashes reached, even when none of its tanks can burn (an empty model), so a
+    // reader can tell "computed: nothing can burn" from a window computed before site losses were kept.
+    sites.push({ siteId: ps.siteId, lossModel, expectedGroundUpLoss: stormSiteLoss(lossModel, null, { window: '', site: ps.siteId }).groundUp.total })
     for (let t = 0; t < ps.nTanks; t++) {
       const direct = 1 - acc.noDirect[t]!, sparking = 1 - acc.noSpark[t]!, ignition = 1 - acc.noIgnition[t]!
       if (direct < negligible && sparking < negligible && ignition < negligible) continue
@@ -175,15 +190,16 @@ export function computeStormWindow(index: StormSiteIndex, flashes: readonly Stor
     }
   })
   tanks.sort((x, y) => y.ignition - x.ignition || (x.tankId < y.tankId ? -1 : 1))
-  return { tanks, groundFlashes, cloudRecordsLeftOut: cloud, flashesNearSites: nearSites, pairs }
+  return { tanks, sites, groundFlashes, cloudRecordsLeftOut: cloud, flashesNearSites: nearSites, pairs }
 }
 
-/** Expected fires (Σ P(ignition)) and expected ground-up loss (Σ P(ignition) × fire loss) of a window. */
-export function windowTotals(tanks: readonly StormTankResult[]): { expectedFires: number; expectedGroundUpLoss: number } {
+/**
+ * Expected fires (Σ P(ignition) over the tanks the flashes reach) and expected ground-up loss (Σ over
+ * sites of E[Σ loss of the burning tanks], spread included) of a window.
+ */
+export function windowTotals(result: Pick<StormComputation, 'tanks' | 'sites'>): { expectedFires: number; expectedGroundUpLoss: number } {
   let fires = 0, loss = 0
-  for (const t of tanks) {
-    fires += t.ignition
-    loss += t.ignition * (t.fireLossPropertyDamage + t.fireLossInterruption)
-  }
+  for (const t of result.tanks) fires += t.ignition
+  for (const s of result.sites) loss += s.expectedGroundUpLoss
   return { expectedFires: fires, expectedGroundUpLoss: loss }
 }

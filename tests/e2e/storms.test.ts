@@ -14,6 +14,7 @@ let browser: Browser
 let managerEmail: string
 let managerCookie: string
 let token: string
+let analystCookie: string
 const SITE = { lat: 32.2, lon: -101.9 }
 
 beforeAll(async () => {
@@ -26,6 +27,7 @@ beforeAll(async () => {
     await pool.query(`INSERT INTO tank_components (tank_id, component_class, count, height_m) VALUES ($1, 'sharp_device', 1, 5)`, [t.rows[0].id])
   }
   const admin = await memberClient(pool, org, 'admin')
+  analystCookie = (await memberClient(pool, org, 'analyst')).cookie
   token = (await (await admin.post('/api/storms/feeds', { name: 'Browser test provider' })).json() as { token: string }).token
   await admin.request('PUT', '/api/storms/alert-settings', { ignitionThreshold: 0.02 })
   const m = await createMember(pool, org, 'asset_manager')
@@ -72,8 +74,29 @@ describe('after the storm in a real browser', () => {
       return n
     })
     expect(inked).toBeGreaterThan(1000)
+    // The organisation holds no terms on the site: "no terms", never a loss of 0, and the total says how many.
+    const siteRow = page.locator('[data-testid="storm-sites"] tbody tr', { hasText: 'Mesa tank battery' })
+    expect(await siteRow.locator('td[data-terms]').getAttribute('data-terms')).toBe('none')
+    expect(await siteRow.locator('td[data-terms]').innerText()).toBe('no terms')
+    const insuredTotal = await page.getByTestId('storm-insured-total').innerText()
+    expect(insuredTotal).toContain('1 with no terms')
+    expect(insuredTotal).not.toMatch(/USD 0\b/)
     expect(await page.getByTestId('caution-notice').count()).toBeGreaterThan(0)
     await saveScreenshot(page, 'storm-report')
+    expect(outsideRequests).toEqual([])
+  })
+
+  it('an upload with bad lines is refused whole; the page lists each bad line from data.fields', async () => {
+    const { page, context, outsideRequests } = await openGuardedPage(browser)
+    const [name, value] = analystCookie.split('=') as [string, string]
+    await context.addCookies([{ name, value, url: inject('baseUrl') }])
+    await page.goto(`${inject('baseUrl')}/storms`, { waitUntil: 'networkidle' })
+    const csv = 'time,latitude,longitude,peak_current_ka,type,location_error_km\n2026-06-21T10:00:00Z,32.2,-101.9,-20,ground,0.1\n2026-06-21T10:01:00Z,95.0,-101.9,-20,ground,0.1\n2026-06-21T10:02:00Z,32.2,-101.9,-20,lightning,0.1\n'
+    await page.getByTestId('storm-upload').setInputFiles({ name: 'bad-storm.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) })
+    const lines = page.getByTestId('storm-upload-lines').locator('li')
+    await expect.poll(() => lines.count()).toBe(2)
+    expect(await lines.nth(0).innerText()).toMatch(/^Line 3: .*latitude/)
+    expect(await lines.nth(1).innerText()).toMatch(/^Line 4: /)
     expect(outsideRequests).toEqual([])
   })
 })

@@ -4,6 +4,8 @@ import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import { createMember, createOrganisation, memberClient, type Client, TEST_PASSWORD, Client as SessionClient } from '../support/accounts'
 import { testPool } from '../support/db'
 import { waitForMail } from '../support/mail'
+import { spawnWorker, stopWorker } from '../support/workers'
+import jStat from 'jstat'
 
 const pool = testPool()
 afterAll(() => pool.end())
@@ -98,10 +100,12 @@ describe('the feed endpoint', () => {
   it('refuses a batch with a bad line whole, naming the line', async () => {
     const res = await postFeed(`${HEADER}\n${FAR}\n2026-06-14T21:20:00Z,95.0,-102.0,-20,ground,0.1\n${CLOUD}\n`)
     expect(res.status).toBe(400)
-    const body = await res.json() as { message: string, data: { lineErrors: { line: number, message: string }[] } }
-    expect(body.data.lineErrors).toHaveLength(1)
-    expect(body.data.lineErrors[0]!.line).toBe(3)
-    expect(body.data.lineErrors[0]!.message).toContain('latitude')
+    // The one error contract: data.fields keyed `lines.<n>` (DEVELOPERS.md), and how many lines were bad.
+    const body = await res.json() as { message: string, data: { fields: Record<string, string>, errorCount: number } }
+    expect(Object.keys(body.data.fields)).toEqual(['lines.3'])
+    expect(body.data.fields['lines.3']).toContain('latitude')
+    expect(body.data.errorCount).toBe(1)
+    expect(body.message).toContain('line 3')
     expect(await batches()).toBe(0)
     expect(await flashes()).toBe(0)
   })
@@ -143,8 +147,9 @@ describe('the storm report', () => {
 
   it('ranks the tank with its probabilities, driving flash and losses', async () => {
     const report = await (await manager.client.get(`/api/storms/windows/${windowId}`)).json() as {
-      tanks: { tag: string, direct: number, ignition: number, flashCurrentKa: number, expectedGroundUpLoss: number, expectedInsuredLoss: number }[]
-      totals: { expectedFires: number, expectedGroundUpLoss: number, expectedInsuredLoss: number }
+      tanks: { tag: string, direct: number, ignition: number, burning: number, flashCurrentKa: number, expectedGroundUpLoss: number }[]
+      siteLosses: { terms: string, method: string, expectedInsuredLoss: number, insuredAtRisk: number, valueAtRisk: number }[]
+      totals: { expectedFires: number, expectedGroundUpLoss: number, expectedInsuredLoss: number, sitesWithTerms: number, sitesWithoutTerms: number }
       flashes: unknown[], sites: unknown[]
     }
     const t = report.tanks[0]!
@@ -153,12 +158,21 @@ describe('the storm report', () => {
     // P(fire) = 1 − (1 − 0.5)(1 − p_far) with p_far < 1e-12 (55 km away): 0.5, the ignition given a
     // direct strike on a non-conducting tank with a vapour space (MODEL.md §4).
     expect(t.ignition).toBeCloseTo(0.5, 9)
+    expect(t.burning).toBeCloseTo(0.5, 9) // one tank: no neighbour to spread from
     expect(t.flashCurrentKa).toBe(-60) // the driving flash is the on-axis one
     expect(report.totals.expectedFires).toBeCloseTo(0.5, 9) // Σ P(ignition), one tank
     // Ground-up: 0.5 × (PD 250,000 + BI 48,000) = 149,000 (hand-worked; one tank, no spread).
     expect(report.totals.expectedGroundUpLoss).toBeCloseTo(0.5 * (FIRE_PD + FIRE_BI), 2)
-    // Insured: share 0.5 × ((250,000 − 50,000) + (48,000 − 8,000)) = 120,000 per fire; × 0.5 = 60,000 (hand-worked).
-    expect(report.totals.expectedInsuredLoss).toBeCloseTo(0.5 * 0.5 * ((FIRE_PD - 50_000) + (FIRE_BI - 8_000)), 2)
+    // Insured: 0.5 × E[(PD − 50,000)+ + (BI − 8,000)+] × share 0.5 over the beta damage ratios — not the
+    // terms on the mean fire (0.5 × 0.5 × 240,000 = 60,000), which understates it.
+    const insured = 0.5 * 0.5 * expectedOccurrenceNet(50_000, 8_000)
+    expect(insured).toBeGreaterThan(60_000) // E[(X − d)+] ≥ (E[X] − d)+ (Jensen)
+    expect(Math.abs(report.totals.expectedInsuredLoss - insured) / insured).toBeLessThan(1e-3) // midpoint rule of 4,096 levels vs 160 Gauss–Legendre nodes
+    const site = report.siteLosses[0]!
+    expect(site).toMatchObject({ terms: 'current', method: 'exact' })
+    expect(site.valueAtRisk).toBe(430_000) // Σ of T-1's values (test inputs above)
+    expect(site.insuredAtRisk).toBe(215_000) // × share 0.5, no limit
+    expect(report.totals).toMatchObject({ sitesWithTerms: 1, sitesWithoutTerms: 0 })
     expect(report.flashes).toHaveLength(3)
     expect(report.sites).toHaveLength(1)
   })
@@ -172,6 +186,10 @@ describe('the storm report', () => {
     await wb.xlsx.load(Buffer.from(await res.arrayBuffer()) as unknown as ArrayBuffer)
     expect(String(wb.getWorksheet('Summary')!.getCell(2, 2).value)).toContain('not a lightning-protection design')
     expect(wb.getWorksheet('Tanks')!.getCell(2, 4).value).toBe('T-1')
+    const sitesSheet = wb.getWorksheet('Sites')!
+    expect(sitesSheet.getCell(1, 6).value).toBe('expected_insured_loss_USD')
+    expect(Number(sitesSheet.getCell(2, 6).value)).toBeGreaterThan(60_000) // the insured expectation of the report above
+    expect(String(sitesSheet.getCell(2, 10).value)).toContain('exact')
     const otherOrg = await createOrganisation(pool, 'Storm Bystander')
     const stranger = await memberClient(pool, otherOrg, 'underwriter')
     expect((await stranger.get(`/api/storms/windows/${windowId}`)).status).toBe(404)
@@ -202,38 +220,55 @@ describe('uploads', () => {
   })
 })
 
-describe('a worker cut off mid-batch', () => {
-  it('leaves one copy of every record and the batch is worked again in full', async () => {
-    // Hold the organisation's window lock, so the worker's transaction stops inside the batch; then
-    // end that worker's database session (what a killed worker amounts to for PostgreSQL).
+describe('a worker killed mid-batch', () => {
+  it('SIGKILL of a real worker process holding a batch: one copy of every record, and the batch completes once a new worker runs', async () => {
+    // Hold the organisation's window lock, so a worker's transaction stops inside the batch. Two
+    // batches: the app's own worker (one storm batch at a time) takes one, the extra worker the other.
+    const doomed = spawnWorker()
+    await doomed.ready
     const holder = await pool.connect()
+    let fresh: ReturnType<typeof spawnWorker> | null = null
     try {
       await holder.query(`SELECT pg_advisory_lock(hashtext($1))`, [`storm-windows:${org}`])
-      const res = await postFeed(`${HEADER}\n2026-08-02T18:00:00.000Z,${SITE.lat.toFixed(6)},${(SITE.lon + 0.002).toFixed(6)},-20.0,ground,0.05\n2026-08-02T18:00:30.000Z,${(SITE.lat + 0.01).toFixed(6)},${SITE.lon.toFixed(6)},-15.0,ground,0.2\n`)
-      expect(res.status).toBe(202)
-      let waiting: number | null = null
-      for (let i = 0; i < 200 && waiting === null; i++) {
-        const { rows } = await pool.query(`SELECT pid FROM pg_stat_activity WHERE wait_event_type = 'Lock' AND query LIKE '%pg_advisory_xact_lock%' AND datname = current_database()`)
-        if (rows.length) waiting = rows[0].pid
-        else await new Promise(r => setTimeout(r, 100))
+      for (const minute of ['00', '10']) {
+        const res = await postFeed(`${HEADER}\n2026-08-02T18:${minute}:00.000Z,${SITE.lat.toFixed(6)},${(SITE.lon + 0.002).toFixed(6)},-20.0,ground,0.05\n2026-08-02T18:${minute}:30.000Z,${(SITE.lat + 0.01).toFixed(6)},${SITE.lon.toFixed(6)},-15.0,ground,0.2\n`)
+        expect(res.status).toBe(202)
       }
-      expect(waiting, 'the worker never reached the window lock').not.toBeNull()
-      await pool.query(`SELECT pg_terminate_backend($1)`, [waiting])
-      await new Promise(r => setTimeout(r, 500))
+      // The heartbeat names the worker (host:pid) that holds each storm batch job.
+      let held = false
+      for (let i = 0; i < 300 && !held; i++) {
+        const { rows } = await pool.query(`SELECT count(*)::int AS n FROM job_heartbeats WHERE queue = 'storm.batch' AND worker LIKE $1
+          AND job_id IN (SELECT id FROM pgboss.job WHERE name = 'storm.batch' AND state = 'active')`, [`%:${doomed.workerPid()}`])
+        held = rows[0].n > 0
+        if (!held) await new Promise(r => setTimeout(r, 100))
+      }
+      expect(held, `the extra worker never took a storm batch: ${doomed.output().slice(-1000)}`).toBe(true)
+      await stopWorker(doomed, 'SIGKILL')
+      expect(doomed.child.signalCode ?? doomed.child.exitCode).not.toBeNull()
     } finally {
+      await stopWorker(doomed, 'SIGKILL').catch(() => {})
       await holder.query(`SELECT pg_advisory_unlock(hashtext($1))`, [`storm-windows:${org}`]).catch(() => {})
       holder.release()
     }
-    await waitForBatches(60_000)
+    try {
+      // A new worker: its reaper (like the app worker's) fails the dead worker's job once its beat is stale, and it is worked again.
+      fresh = spawnWorker()
+      await fresh.ready
+      await waitForBatches(90_000)
+    } finally {
+      if (fresh) await stopWorker(fresh)
+    }
     const { rows } = await pool.query(`SELECT record_key, count(*)::int AS n FROM storm_flashes WHERE organisation_id = $1 GROUP BY record_key HAVING count(*) > 1`, [org])
     expect(rows).toEqual([]) // unique on record identity: one copy each
-    const windows = await pool.query(`SELECT w.id, w.flash_count, (SELECT count(*)::int FROM storm_flashes f WHERE f.window_id = w.id) AS n FROM storm_windows w WHERE w.organisation_id = $1 AND w.starts_at >= '2026-08-01'`, [org])
-    expect(windows.rows).toHaveLength(1)
-    expect(windows.rows[0].flash_count).toBe(2)
-    expect(windows.rows[0].n).toBe(2)
+    const windows = await pool.query(`SELECT w.id, w.flash_count, (SELECT count(*)::int FROM storm_flashes f WHERE f.window_id = w.id) AS n FROM storm_windows w WHERE w.organisation_id = $1 AND w.starts_at >= '2026-08-01' AND w.starts_at < '2026-09-01'`, [org])
+    expect(windows.rows).toHaveLength(1) // both batches within the hour: one window
+    expect(windows.rows[0].flash_count).toBe(4)
+    expect(windows.rows[0].n).toBe(4)
     const results = await pool.query(`SELECT count(*)::int AS n FROM storm_tank_results WHERE window_id = $1`, [windows.rows[0].id])
     expect(results.rows[0].n).toBe(1) // the one tank, once
-  }, 90_000)
+    const states = await pool.query(`SELECT state FROM storm_batches WHERE organisation_id = $1 AND created_at > now() - interval '5 minutes'`, [org])
+    expect(states.rows.every((r: { state: string }) => r.state === 'processed')).toBe(true)
+  }, 150_000)
 })
 
 describe('portfolios shared with another organisation', () => {
@@ -252,10 +287,92 @@ describe('portfolios shared with another organisation', () => {
     const theirs = (await (await reader.get('/api/storms/windows')).json() as Row[]).find(w => w.startsAt.startsWith('2026-09-10'))!
     expect(theirs.own).toBe(false)
     expect(theirs.expectedFires).toBeCloseTo(0.5, 9) // the shared site's tank only
-    const report = await (await reader.get(`/api/storms/windows/${theirs.id}`)).json() as { tanks: { tag: string, hasTerms: boolean }[], totals: { expectedFires: number, expectedInsuredLoss: number } }
+    type Report = { tanks: { tag: string }[], siteLosses: { siteName: string, terms: string, expectedInsuredLoss: number | null }[], totals: { expectedFires: number, expectedInsuredLoss: number, sites: number, sitesWithTerms: number, sitesWithoutTerms: number } }
+    const report = await (await reader.get(`/api/storms/windows/${theirs.id}`)).json() as Report
     expect(report.tanks.map(t => t.tag)).toEqual(['T-1'])
     expect(report.totals.expectedFires).toBeCloseTo(0.5, 9)
-    expect(report.totals.expectedInsuredLoss).toBe(0) // the insurer has no terms on this portfolio
-    expect(report.tanks[0]!.hasTerms).toBe(false)
+    // The insurer has no terms on this portfolio: "no terms", not a loss of 0, and the totals say so.
+    expect(report.siteLosses).toEqual([expect.objectContaining({ siteName: 'Ridge tank battery', terms: 'none', expectedInsuredLoss: null })])
+    expect(report.totals).toMatchObject({ sites: 1, sitesWithTerms: 0, sitesWithoutTerms: 1 })
+    const res = await reader.get(`/api/storms/windows/${theirs.id}/export`)
+    expect(res.status).toBe(200)
+    const ExcelJS = (await import('exceljs')).default
+    const wb = new ExcelJS.Workbook()
+    await wb.xlsx.load(Buffer.from(await res.arrayBuffer()) as unknown as ArrayBuffer)
+    const sheet = wb.getWorksheet('Sites')!
+    expect(sheet.getCell(2, 6).value).toBeNull() // blank, with a note
+    expect(sheet.getCell(2, 9).value).toBe('no terms')
+    expect(String(sheet.getCell(2, 11).value)).toContain('no terms')
+    expect(String(sheet.getCell(2, 11).value)).toContain('not a loss of 0')
+  })
+})
+
+describe('the feed’s rate limit', () => {
+  it('counts every attempt — refused and duplicate posts alike — and answers 429 with Retry-After', async () => {
+    const res = await admin.post('/api/storms/feeds', { name: 'Busy provider' })
+    const busy = (await res.json() as { token: string }).token
+    // 15 duplicates (a batch this organisation already holds) and 15 refused batches: 30 attempts, 0 stored.
+    const before = await batches()
+    for (let i = 0; i < 15; i++) expect((await postFeed(`${HEADER}\n${ON_AXIS}\n${FAR}\n`, busy)).status).toBe(200)
+    for (let i = 0; i < 15; i++) expect((await postFeed(`${HEADER}\n2026-06-14T21:20:00Z,95.0,-102.0,-20,ground,0.1\n`, busy)).status).toBe(400)
+    expect(await batches()).toBe(before) // nothing stored: the old limit (stored batches only) would never have stopped this feed
+    const over = await postFeed(`${HEADER}\n2027-01-05T10:00:00.000Z,10.000000,10.000000,-5.0,ground,0.1\n`, busy)
+    expect(over.status).toBe(429) // the 31st attempt within a minute (FEED_POSTS_PER_MINUTE = 30)
+    const retryAfter = Number(over.headers.get('retry-after'))
+    expect(retryAfter).toBeGreaterThanOrEqual(1)
+    expect(retryAfter).toBeLessThanOrEqual(60)
+    const body = await over.json() as { message: string }
+    expect(body.message).toMatch(/31 posts in the last minute; it may make 30\. Try again in \d+ s/)
+    expect(await batches()).toBe(before)
+    // Refused attempts count too: the next one is refused the same way.
+    expect((await postFeed(`${HEADER}\n${ON_AXIS}\n`, busy)).status).toBe(429)
+    const { rows } = await pool.query(`SELECT count(*)::int AS n FROM storm_feed_attempts a JOIN storm_feeds f ON f.id = a.feed_id WHERE f.token_hash <> '' AND f.name = 'Busy provider' AND f.organisation_id = $1`, [org])
+    expect(rows[0].n).toBe(32)
+    // Per token: the organisation's other feed is not limited by this one.
+    expect((await postFeed(`${HEADER}\n2026-06-14T21:20:00Z,95.0,-102.0,-20,ground,0.1\n`)).status).toBe(400)
+  })
+})
+
+/**
+ * E[(PD − d)+ + (BI − d_BI)+] for T-1 burning: one uniform u drives every component through its beta
+ * quantile (jstat; method-of-moments shape from the default means and sds, README "Loss model":
+ * replacement 0.7 ± 0.25, contents 0.8 ± 0.25, clean-up 0.6 ± 0.3, interruption 0.6 ± 0.3), integrated
+ * over u by composite 4-point Gauss–Legendre on 40 panels (Abramowitz & Stegun 25.4.29 nodes).
+ */
+function expectedOccurrenceNet(deductible: number, interruptionDeductible: number): number {
+  const q = (mean: number, sd: number, u: number) => {
+    const k = mean * (1 - mean) / (sd * sd) - 1
+    return jStat.beta.inv(u, mean * k, (1 - mean) * k)
+  }
+  const x = [-0.8611363115940526, -0.3399810435848563, 0.3399810435848563, 0.8611363115940526]
+  const w = [0.3478548451374538, 0.6521451548625461, 0.6521451548625461, 0.3478548451374538]
+  let e = 0
+  for (let p = 0; p < 40; p++) {
+    for (let k = 0; k < 4; k++) {
+      const u = (p + (x[k]! + 1) / 2) / 40
+      const pd = VALUES.replacement * q(0.7, 0.25, u) + VALUES.contents * q(0.8, 0.25, u) + VALUES.cleanup * q(0.6, 0.3, u)
+      const bi = VALUES.interruption * q(0.6, 0.3, u)
+      e += (w[k]! / 2 / 40) * (Math.max(0, pd - deductible) + Math.max(0, bi - interruptionDeductible))
+    }
+  }
+  return e
+}
+
+describe('a storm computed before per-site losses were kept', () => {
+  it('still reads: its stored ground-up figure, insured "not computed" (never 0), the totals count it', async () => {
+    const list = await (await underwriter.get('/api/storms/windows')).json() as { id: string, startsAt: string }[]
+    const june = list.find(w => w.startsAt.startsWith('2026-06-14'))!
+    // What a window computed by the former release holds: tank results, no site rows.
+    await pool.query(`DELETE FROM storm_site_results WHERE window_id = $1`, [june.id])
+    const stored = (await pool.query(`SELECT ignition, fire_loss_property_damage::float8 + fire_loss_interruption::float8 AS fire FROM storm_tank_results WHERE window_id = $1`, [june.id])).rows as { ignition: number, fire: number }[]
+    const res = await underwriter.get(`/api/storms/windows/${june.id}`)
+    expect(res.status).toBe(200)
+    const report = await res.json() as { siteLosses: { terms: string, expectedInsuredLoss: number | null, expectedGroundUpLoss: number }[], totals: { sitesNotComputed: number, sitesWithTerms: number, expectedGroundUpLoss: number } }
+    expect(report.siteLosses).toHaveLength(1)
+    expect(report.siteLosses[0]).toMatchObject({ terms: 'not computed', expectedInsuredLoss: null })
+    // The former convention on the stored columns: Σ P(fire) × the expected loss of a fire starting at the tank.
+    expect(report.totals.expectedGroundUpLoss).toBeCloseTo(stored.reduce((s, r) => s + r.ignition * r.fire, 0), 2)
+    expect(report.totals).toMatchObject({ sitesNotComputed: 1, sitesWithTerms: 0 })
+    expect((await underwriter.get(`/api/storms/windows/${june.id}/export`)).status).toBe(200)
   })
 })

@@ -2,7 +2,7 @@
 // text/csv). Public in the session sense: authenticated by the feed's bearer token instead
 // (Authorization: Bearer <token>), rate-limited per feed. Idempotent: the same batch again answers
 // 200 with the stored batch; records known from earlier batches are kept once. All-or-nothing:
-// any bad line refuses the batch (400, line-level messages in data.lineErrors).
+// any bad line refuses the batch (400, line-level messages in data.fields keyed `lines.<n>`, with data.errorCount).
 import { receiveStormBatch } from '~~/server/storms/batch-route'
 import { requireFeed } from '~~/server/storms/feed-auth'
 

@@ -34,6 +34,19 @@ export const stormFeeds = pgTable('storm_feeds', {
   check('storm_feeds_name_present', sql`length(${t.name}) > 0`),
 ])
 
+/**
+ * Every post to the feed endpoint under a feed's token — stored, duplicate or refused alike — so the
+ * rate limit counts attempts, not stored batches (server/storms/feed-auth.ts). Rows older than ten
+ * minutes are pruned as new attempts arrive.
+ */
+export const stormFeedAttempts = pgTable('storm_feed_attempts', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  feedId: uuid('feed_id').notNull().references(() => stormFeeds.id, { onDelete: 'cascade' }),
+  attemptedAt: timestamp('attempted_at', { withTimezone: true, precision: 3 }).notNull().defaultNow(),
+}, t => [
+  index('storm_feed_attempts_feed_at_idx').on(t.feedId, t.attemptedAt),
+])
+
 /** One posted batch or uploaded file; the same content posted again is the same batch. */
 export const stormBatches = pgTable('storm_batches', {
   id: uuid('id').primaryKey().defaultRandom(),
@@ -126,6 +139,23 @@ export const stormTankResults = pgTable('storm_tank_results', {
   index('storm_tank_results_site_idx').on(t.siteId),
   index('storm_tank_results_flash_idx').on(t.drivingFlashId),
   check('storm_tank_results_probabilities', sql`${t.direct} BETWEEN 0 AND 1 AND ${t.sparking} BETWEEN 0 AND 1 AND ${t.ignition} BETWEEN 0 AND 1`),
+])
+
+/**
+ * Per window and site the flashes reached: what the site brings to the storm's loss (shared/storms/loss.ts
+ * `StormSiteLossModel`: the tanks that can burn with their P(fire) and values, the spread between them,
+ * the damage ratios, the value at risk), so each reader's current terms apply to it when the report is
+ * read. Windows computed before this table have no rows; their report says so.
+ */
+export const stormSiteResults = pgTable('storm_site_results', {
+  windowId: uuid('window_id').notNull().references(() => stormWindows.id, { onDelete: 'cascade' }),
+  siteId: uuid('site_id').notNull().references(() => sites.id, { onDelete: 'cascade' }),
+  lossModel: jsonb('loss_model').notNull(),
+  /** E[Σ loss of the burning tanks], spread included. */
+  expectedGroundUpLoss: money('expected_ground_up_loss').notNull(),
+}, t => [
+  primaryKey({ columns: [t.windowId, t.siteId] }),
+  index('storm_site_results_site_idx').on(t.siteId),
 ])
 
 /** The organisation's alert rule: e-mail the subscribers when a tank's ignition probability passes it. */
