@@ -22,6 +22,8 @@ export const navSections: NavSection[] = [
   { label: 'Calibration', to: '/calibration', roles: [...EDITOR_ROLES] },
   // After the storm: reports for every role but viewers (the readers: asset managers, underwriters, analysts, admins).
   { label: 'Storms', to: '/storms', roles: ['admin', 'analyst', 'underwriter', 'asset_manager'] },
+  // Referrals raised on sites: every member reads them (underwriters raise them, anyone may be given one).
+  { label: 'Referrals', to: '/referrals' },
   { label: 'Admin', to: '/admin', roles: ['admin'] },
 ]
 

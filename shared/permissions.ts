@@ -21,8 +21,10 @@ export const PERMISSIONS = {
   plan: ['admin', 'asset_manager'],
   /** Capital plan: evaluating actions runs simulations, so it is an analyst's task (ROLES.editors). */
   evaluateActions: EDITORS,
-  /** Insurance terms and referral notes (ROLES.underwriting). */
+  /** Insurance terms and referrals: write them, give them to someone, set due dates (ROLES.underwriting). */
   underwrite: ['admin', 'underwriter'],
+  /** Reply in a referral's thread, and move the status of one given to you (ROLES.contributors). */
+  reply: ['admin', 'analyst', 'underwriter', 'asset_manager'],
   /** Members, invitations, audit log, mailbox (ROLES.admins). */
   administer: ['admin'],
   /** Reading anything of the organisation. */

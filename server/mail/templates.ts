@@ -46,6 +46,19 @@ If it was not, reset your password now: ${o.resetLink}${SIGNATURE}`,
   }
 }
 
+export function referralAssignedMail(o: { organisationName: string, siteName: string, by: string, body: string, dueOn: string | null, link: string }): MailContent {
+  const excerpt = o.body.length > 600 ? `${o.body.slice(0, 600)}…` : o.body
+  return {
+    subject: `Referral for you: ${o.siteName}${o.dueOn ? `, due ${o.dueOn}` : ''}`,
+    text: `${o.by} of ${o.organisationName} gave you a referral on the site ${o.siteName}${o.dueOn ? `, due on ${o.dueOn} (UTC)` : ''}:
+
+${excerpt.split('\n').map(l => `> ${l}`).join('\n')}
+
+Open it to reply, or to set it in review, accepted or declined:
+${o.link}${SIGNATURE}`,
+  }
+}
+
 export function importEndedMail(o: { fileName: string, outcome: { ok: true, summary: { sites: { new: number, changed: number }, tanks: { new: number, changed: number }, structures: { new: number, changed: number } } } | { ok: false, message: string }, link: string }): MailContent {
   if (!o.outcome.ok) {
     return {
