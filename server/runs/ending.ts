@@ -4,6 +4,7 @@ import { useDb } from '../db'
 import { runPortfolioResults, runs, runSiteResults, runTankResults, users } from '../db/schema'
 import { enqueue } from '../jobs/queue'
 import { runEndedMessage } from '../mail/run-messages'
+import { portfolioResult } from '../results/queries'
 
 const OPEN_STATES = ['queued', 'running'] as const
 
@@ -28,7 +29,7 @@ export async function notifyRunEnded(runId: string): Promise<void> {
   const [row] = await db.select({ run: runs, email: users.email, name: users.name }).from(runs)
     .leftJoin(users, eq(users.id, runs.requestedBy)).where(eq(runs.id, runId))
   if (!row?.email) return
-  const [portfolio] = await db.select().from(runPortfolioResults).where(eq(runPortfolioResults.runId, runId))
-  const message = runEndedMessage({ run: row.run, recipientName: row.name ?? '', portfolio: portfolio ?? null })
+  const portfolio = await portfolioResult(runId)
+  const message = runEndedMessage({ run: row.run, recipientName: row.name ?? '', portfolio })
   await enqueue('mail.send', { to: row.email, ...message, organisationId: row.run.organisationId })
 }

@@ -1,9 +1,9 @@
 // GET /api/runs/:id/export — the results workbook of a succeeded run (everyone but viewers); audited.
 import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
-import { runTankResults, users } from '~~/server/db/schema'
+import { users } from '~~/server/db/schema'
 import { findVersion } from '~~/server/assumptions/versions'
-import { findSucceededRun, portfolioResult, siteResults } from '~~/server/results/queries'
+import { findSucceededRun, portfolioResult, siteResults, tankResults } from '~~/server/results/queries'
 import { writeResultsWorkbook } from '~~/server/results/workbook'
 import { settings } from '~~/server/settings'
 import { setDownloadHeaders } from '~~/server/utils/downloads'
@@ -16,7 +16,7 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const [portfolio, sites, tanks, version, requester] = await Promise.all([
     portfolioResult(run.id), siteResults(run.id),
-    db.select().from(runTankResults).where(eq(runTankResults.runId, run.id)).orderBy(runTankResults.siteId, runTankResults.tag),
+    tankResults(run.id),
     findVersion(member.organisationId, run.assumptionVersionId),
     run.requestedBy ? db.select({ name: users.name }).from(users).where(eq(users.id, run.requestedBy)) : Promise.resolve([]),
   ])
