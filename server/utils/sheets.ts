@@ -93,15 +93,16 @@ export const headingRow = (text: string): SummaryRow => ({ cells: [text], bold: 
 export const valueRow = (label: string, value: CellValue, numFmt?: string): SummaryRow => ({ cells: [label, value], numFmt })
 
 /**
- * The caution and provenance sheet that opens every export: the title (row 1), the caution
- * (row 2, column B), then the rows given (headline figures, provenance). Text cells are formula-safe;
- * `numFmt` applies to the numbers of its row.
+ * The caution and provenance sheet that opens every export: the title (row 1, when given), the
+ * caution (next row, column B), then the rows given (headline figures, provenance). Text cells are
+ * formula-safe; `numFmt` applies to the numbers of its row.
  */
-export function addCautionSheet(wb: ExcelJS.Workbook, o: { name?: string, title: string, caution?: string, rows: SummaryRow[], widths?: number[] }): ExcelJS.Worksheet {
+export function addCautionSheet(wb: ExcelJS.Workbook, o: { name?: string, title?: string, caution?: string, rows: SummaryRow[], widths?: number[] }): ExcelJS.Worksheet {
   const ws = wb.addWorksheet(o.name ?? 'Summary')
   const widths = o.widths ?? [46, 70]
   widths.forEach((w, i) => { ws.getColumn(i + 1).width = w })
-  const rows: SummaryRow[] = [{ cells: [o.title] }, { cells: ['Caution', o.caution ?? CAUTION_FULL] }, ...o.rows]
+  const top: SummaryRow[] = o.title ? [{ cells: [o.title] }] : []
+  const rows: SummaryRow[] = [...top, { cells: ['Caution', o.caution ?? CAUTION_FULL] }, ...o.rows]
   rows.forEach((r, i) => {
     const row = ws.getRow(i + 1)
     r.cells.forEach((v, j) => {
@@ -111,8 +112,8 @@ export function addCautionSheet(wb: ExcelJS.Workbook, o: { name?: string, title:
     })
     if (r.bold) row.font = { bold: true }
   })
-  ws.getCell(1, 1).font = { bold: true, size: 14 }
-  ws.getCell(2, 2).alignment = { wrapText: true, vertical: 'top' }
+  if (o.title) ws.getCell(1, 1).font = { bold: true, size: 14 }
+  ws.getCell(top.length + 1, 2).alignment = { wrapText: true, vertical: 'top' }
   return ws
 }
 

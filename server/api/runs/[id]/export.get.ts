@@ -6,7 +6,7 @@ import { findVersion } from '~~/server/assumptions/versions'
 import { findSucceededRun, portfolioResult, siteResults, tankResults } from '~~/server/results/queries'
 import { writeResultsWorkbook } from '~~/server/results/workbook'
 import { settings } from '~~/server/settings'
-import { setDownloadHeaders } from '~~/server/utils/downloads'
+import { sendWorkbook } from '~~/server/utils/sheets'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
@@ -27,6 +27,5 @@ export default defineEventHandler(async (event) => {
     requestedBy: requester[0]?.name ?? null, exportedBy: member.user.name,
   })
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'run', entityId: run.id, after: { workbook: 'results' } }, { event })
-  setDownloadHeaders(event, `stormledger-results-${run.id.slice(0, 8)}.xlsx`)
-  return buffer
+  return sendWorkbook(event, buffer, `stormledger-results-${run.id.slice(0, 8)}.xlsx`)
 })
