@@ -3,7 +3,6 @@
 import { and, asc, desc, eq, sql } from 'drizzle-orm'
 import { useDb } from '../db'
 import { assumptionSetVersions, runPortfolioResults, runs, runSiteResults, runSiteSnapshots, runTankResults } from '../db/schema'
-import type { SiteFacts } from '../runs/snapshot'
 import type { SiteInput } from '../../shared/engine/types'
 import { parseAssumptions } from '../../shared/engine/assumptions'
 import { spreadNeighbours, type SpreadNeighbour } from '../../shared/engine/loss'
@@ -101,7 +100,7 @@ export async function portfolioResult(runId: string) {
     yearSummary: runPortfolioResults.yearSummary,
   }).from(runPortfolioResults).where(eq(runPortfolioResults.runId, runId))
   if (!row) return null
-  return { figures: toFigures(row), lossSplit: lossSplit(row), yearSummary: row.yearSummary as StoredYearSummary | null }
+  return { figures: toFigures(row), lossSplit: lossSplit(row), yearSummary: row.yearSummary }
 }
 export type PortfolioResult = NonNullable<Awaited<ReturnType<typeof portfolioResult>>>
 
@@ -119,7 +118,7 @@ export async function siteResults(runId: string) {
     .where(eq(runSiteResults.runId, runId))
     .orderBy(desc(runSiteResults.ignitionRate), asc(runSiteResults.siteId))
   return rows.map(r => ({
-    siteId: r.siteId, facts: r.facts as SiteFacts, figures: toFigures(r), lossSplit: lossSplit(r),
+    siteId: r.siteId, facts: r.facts, figures: toFigures(r), lossSplit: lossSplit(r),
     radiusM: r.radiusM, lambdaPerYear: r.lambdaPerYear, lossAt100: r.lossAt100, tanks: r.tanks,
   }))
 }
@@ -192,10 +191,10 @@ export async function siteDetail(runId: string, siteId: string) {
   return {
     result: {
       figures: toFigures(row), lossSplit: lossSplit(row), radiusM: row.radiusM, eventBands: row.eventBands,
-      yearSummary: row.yearSummary as StoredYearSummary | null,
+      yearSummary: row.yearSummary,
     },
-    site: row.site as SiteInput,
-    facts: row.facts as SiteFacts,
+    site: row.site,
+    facts: row.facts,
     tanks: tanks.map(tankResult),
   }
 }

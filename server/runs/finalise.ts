@@ -8,6 +8,7 @@ import type { Figure } from './compute'
 import { decodeEvents } from './events-codec'
 import { sumCounts } from './figures'
 import { figureValues, selectFigures, toFigures } from '../results/figures'
+import type { StoredYearSummary } from '../results/queries'
 import { figureFromEstimate, type FigureName } from '../../shared/results/figure'
 import { normalEstimate, sumEstimates } from '../../shared/engine/statistics'
 
@@ -73,7 +74,7 @@ export async function finaliseRun(runId: string): Promise<boolean> {
     // The figures only: the per-site blobs (events, event bands, year summaries) are not read here.
     const rows = (await tx.select(siteColumns).from(runSiteResults).where(eq(runSiteResults.runId, runId)).orderBy(asc(runSiteResults.siteId)))
       .map(r => ({ siteId: r.siteId, expectedAnnualLossPd: r.expectedAnnualLossPd, expectedAnnualLossBi: r.expectedAnnualLossBi, figures: toFigures(r) }))
-    let values: { pd: number, bi: number, direct: Figure, sparking: Figure, ignition: Figure, eal: Figure, yearSummary: object | null }
+    let values: { pd: number, bi: number, direct: Figure, sparking: Figure, ignition: Figure, eal: Figure, yearSummary: StoredYearSummary | null }
     const splitSum = (key: 'expectedAnnualLossPd' | 'expectedAnnualLossBi') => rows.reduce((s, r) => s + (r[key] ?? 0), 0)
     const pd = splitSum('expectedAnnualLossPd')
     const bi = splitSum('expectedAnnualLossBi')

@@ -4,6 +4,9 @@ import { timestamps } from './columns'
 import { moneyColumn, resultFigureColumns, resultStandardErrorColumns } from './figures'
 import { sql } from 'drizzle-orm'
 import type { ChunkTiming } from '../../runs/timing'
+import type { StoredYearSummary } from '../../results/queries'
+import type { SiteFacts } from '../../runs/snapshot'
+import type { SiteInput } from '../../../shared/engine/types'
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
 
@@ -88,8 +91,8 @@ export const runSiteSnapshots = pgTable('run_site_snapshots', {
   runId: uuid('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
   siteId: uuid('site_id').notNull(),
   position: integer('position').notNull(),
-  site: jsonb('site').notNull(),
-  facts: jsonb('facts').notNull(),
+  site: jsonb('site').$type<SiteInput>().notNull(),
+  facts: jsonb('facts').$type<SiteFacts>().notNull(),
 }, t => [primaryKey({ columns: [t.runId, t.siteId] }), index('run_site_snapshots_position_idx').on(t.runId, t.position)])
 
 export const runChunks = pgTable('run_chunks', {
@@ -144,7 +147,7 @@ export const runSiteResults = pgTable('run_site_results', {
   ...lossSplitColumns(),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   /** Year mode: the site's summary (AAL, return-period losses, TVaR) and its loss events (packed). */
-  yearSummary: jsonb('year_summary'),
+  yearSummary: jsonb('year_summary').$type<StoredYearSummary>(),
   events: bytea('events'),
   /** Share of events by current band × distance band (site heatmap). */
   eventBands: jsonb('event_bands'),
@@ -160,7 +163,7 @@ export const runPortfolioResults = pgTable('run_portfolio_results', {
   ...resultStandardErrorColumns(),
   ...lossSplitColumns(),
   /** Year mode: AAL, aggregate/occurrence losses at 10…1000 years, TVaR and the curves. */
-  yearSummary: jsonb('year_summary'),
+  yearSummary: jsonb('year_summary').$type<StoredYearSummary>(),
   computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
 })
 
