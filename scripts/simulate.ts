@@ -27,7 +27,7 @@ const { values } = parseArgs({
 
 async function findPortfolio(nameOrId: string, organisation?: string) {
   const db = useDb()
-  const rows = await db.select({ id: portfolios.id, name: portfolios.name, organisationId: portfolios.organisationId, organisation: organisations.name })
+  const rows = await db.select({ id: portfolios.id, name: portfolios.name, organisationId: portfolios.organisationId, organisation: organisations.name, currency: organisations.currency })
     .from(portfolios).innerJoin(organisations, eq(organisations.id, portfolios.organisationId))
     .where(and(
       UUID.test(nameOrId) ? eq(portfolios.id, nameOrId) : ilike(portfolios.name, nameOrId),
@@ -69,7 +69,7 @@ async function main() {
   })
   if (!input.success) throw new UsageError(input.error.issues.map(i => `${String(i.path[0])}: ${i.message}`).join('\n'))
   const run = await startRun(input.data, { userId: null, organisationId: portfolio.organisationId })
-  console.error(`Run ${run.id} queued: ${portfolio.name} (${portfolio.organisation}), ${version.set} v${version.version}, ${run.mode} mode, seed ${run.seed}, ${run.sitesTotal} sites in ${run.chunksTotal} chunks.`)
+  console.error(`Run ${run.id} queued: ${portfolio.name} (${portfolio.organisation}), ${version.set} v${version.version}, ${run.mode === 'year' ? `simulated years (${run.years} per site)` : 'frequencies'}, seed ${run.seed}, ${run.sitesTotal} sites in ${run.chunksTotal} chunks.`)
   if (!values.wait) {
     console.log(JSON.stringify({ runId: run.id, seed: run.seed, state: run.state }))
     return
@@ -87,8 +87,8 @@ async function main() {
         return
       }
       const r = current.results
-      console.error(`Expected fires ${formatFrequency(r.ignitionRate)} (${formatOnceIn(r.ignitionRate)}); sparking ${formatFrequency(r.sparkingRate)}; direct ${formatFrequency(r.directRate)}; average annual loss ${formatMoney(r.expectedAnnualLoss)}/yr.`)
-      console.log(JSON.stringify({ runId: current.id, seed: current.seed, state: current.state, inputHash: current.inputHash, elapsedSeconds: current.progress.elapsedSeconds, results: r }))
+      console.error(`Expected fires ${formatFrequency(r.ignitionRate)} (${formatOnceIn(r.ignitionRate)}); induced sparking ${formatFrequency(r.sparkingRate)}; direct strikes ${formatFrequency(r.directRate)}; average annual loss (AAL) ${formatMoney(r.expectedAnnualLoss, portfolio.currency)}/yr.`)
+      console.log(JSON.stringify({ runId: current.id, seed: current.seed, state: current.state, inputHash: current.inputHash, elapsedSeconds: current.progress.elapsedSeconds, currency: portfolio.currency, results: r }))
       return
     }
     await new Promise(res => setTimeout(res, 1000))

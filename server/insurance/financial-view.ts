@@ -10,7 +10,6 @@ import type { YearLossSummary } from '../../shared/engine/exceedance'
 import { useDb } from '../db'
 import { assumptionSets, assumptionSetVersions, runs, runSiteResults, runSiteSnapshots, users } from '../db/schema'
 import { decodeEvents, type DecodedEvents } from '../runs/events-codec'
-import type { SiteFacts } from '../runs/snapshot'
 import type { PortfolioLayer } from '../../shared/insurance/layers'
 import { NO_TERMS } from '../../shared/insurance/terms'
 import { tankSeverity } from '../../shared/engine/ignition'
@@ -75,9 +74,9 @@ export async function loadFinancialInputs(organisationId: string, runId: string,
     terms,
     layers,
     sites: siteRows.map((r) => {
-      const facts = r.facts as SiteFacts
+      const facts = r.facts
       const events: DecodedEvents = r.events ? decodeEvents(r.events) : { year: new Int32Array(0), loss: new Float64Array(0), tankStart: Int32Array.from([0]), tankIndex: new Int32Array(0), tankLoss: new Float64Array(0), split: null }
-      const snapshotTanks = (r.site as { tanks?: TankInput[] } | null)?.tanks
+      const snapshotTanks = r.site?.tanks
       return {
         siteId: r.siteId, name: facts.name, externalId: facts.externalId, operatorName: facts.operatorName,
         events: { year: events.year, loss: events.loss, propertyDamage: events.split?.propertyDamage ?? null },

@@ -3,9 +3,9 @@
 // the seeder use it too.
 import ExcelJS from 'exceljs'
 import iconv from 'iconv-lite'
-import { neutraliseFormula } from '../../shared/csv'
-import { MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, SHEET_COLUMNS, SHEET_NAMES, type ColumnSpec, type SheetName } from '../../shared/inventory-layout'
+import { MAX_IMPORT_BYTES, MAX_IMPORT_ROWS, SHEET_COLUMNS, SHEET_NAMES, type SheetName } from '../../shared/inventory-layout'
 import { workbookBytes } from '../utils/downloads'
+import { addTableSheet, newWorkbook } from '../utils/sheets'
 
 /** A problem with the file as a whole: nothing in it is looked at further. `status` 413 for files too large to read. */
 export class ImportFileError extends Error {
@@ -291,14 +291,9 @@ function columnLetter(index: number): string {
 
 function addSheet(workbook: ExcelJS.Workbook, name: SheetName, rows: Record<string, unknown>[]) {
   const columns = SHEET_COLUMNS[name]
-  const ws = workbook.addWorksheet(name, { views: [{ state: 'frozen', ySplit: 1 }] })
-  ws.columns = columns.map(c => ({ header: c.header, key: c.header, width: c.width ?? 14 }))
-  const header = ws.getRow(1)
-  header.font = { bold: true }
-  columns.forEach((c, i) => {
-    header.getCell(i + 1).note = noteFor(c)
-  })
-  for (const r of rows) ws.addRow(columns.map(c => cellForWriting(r[c.header])))
+  // The import layout's headers as they are (units in the names, e.g. height_m); the note says the unit.
+  const ws = addTableSheet(workbook, name, columns.map(c => ({ header: c.header, key: c.header, unit: c.unit ?? '', note: `${c.note} ${c.required ? 'Required.' : 'Optional.'}`, width: c.width ?? 14 })),
+    rows.map(r => Object.fromEntries(columns.map(c => [c.header, cellForWriting(r[c.header])]))), { filter: false })
   // Drop-down lists for the closed sets, over every row an import may hold.
   const lastRow = MAX_IMPORT_ROWS + 1
   columns.forEach((c, i) => {
@@ -312,27 +307,19 @@ function addSheet(workbook: ExcelJS.Workbook, name: SheetName, rows: Record<stri
   })
 }
 
-function noteFor(c: ColumnSpec): string {
-  const parts = [c.note]
-  if (c.unit) parts.push(`Unit: ${c.unit}.`)
-  parts.push(c.required ? 'Required.' : 'Optional.')
-  return parts.join(' ')
-}
-
-/** Text from people is written so that no spreadsheet runs it as a formula (OWASP CSV-injection guidance). */
+/** Yes/no as the import reads it; text is made formula-safe by the sheet writer (OWASP CSV-injection guidance). */
 function cellForWriting(value: unknown): string | number | null {
   if (value === null || value === undefined) return null
   if (typeof value === 'number') return Number.isFinite(value) ? value : null
   if (typeof value === 'boolean') return value ? 'yes' : 'no'
-  return neutraliseFormula(String(value))
+  return String(value)
 }
 
 export type SheetRows = Record<SheetName, Record<string, unknown>[]>
 
 /** A workbook in the template layout; with no rows it is the template itself. */
 export async function writeInventoryWorkbook(rows: SheetRows = { Sites: [], Tanks: [], Structures: [] }): Promise<Buffer> {
-  const workbook = new ExcelJS.Workbook()
-  workbook.creator = 'Stormledger'
+  const workbook = newWorkbook()
   workbook.created = new Date(0)
   const readMe = workbook.addWorksheet('Read me')
   readMe.getColumn(1).width = 110

@@ -2,6 +2,11 @@
 // what to do next. Each template returns the subject and the body; queueMail() sends it.
 import { roleLabels } from '../../shared/roles'
 import type { RoleName } from '../../shared/navigation'
+import { CAUTION_FULL } from '../../shared/caution'
+import { formatCount, formatFrequency, formatInterval, formatMoney, formatOnceIn } from '../../shared/format'
+import type { runs } from '../db/schema'
+import type { PortfolioResult } from '../results/queries'
+import { settings } from '../settings'
 
 export interface MailContent { subject: string, text: string }
 
@@ -101,5 +106,40 @@ The storm report ranks every tank, names the flash that drives each figure and g
 ${o.link}
 
 These are probabilities computed from lightning-location records and illustrative assumptions; they rank where to look and are no finding that a tank burned. You receive this because you asked for storm alerts in Stormledger.${SIGNATURE}`,
+  }
+}
+
+// ---------------------------------------------------------------- run ended
+
+type Run = typeof runs.$inferSelect
+
+/** The run in the product's words: "simulated years" (never "year mode") or frequencies. */
+export function runDescription(run: Pick<Run, 'mode' | 'years'>): string {
+  return run.mode === 'year' ? `simulated-years run (${formatCount(run.years)} years per site)` : 'frequency run'
+}
+
+/** The run-ended e-mail; money in the organisation's `currency` (ISO 4217 code). */
+export function runEndedMessage(input: { run: Run, recipientName: string, portfolio: PortfolioResult | null, currency: string }): { subject: string, text: string } {
+  const { run, portfolio, currency } = input
+  const link = `${settings.publicUrl}/runs/${run.id}`
+  const greeting = `Hello ${input.recipientName || 'there'},`
+  const what = `the ${runDescription(run)} of portfolio "${run.portfolioName}" (seed ${run.seed})`
+  if (run.state === 'succeeded' && portfolio) {
+    const f = portfolio.figures
+    const lines = [
+      greeting, '',
+      `Stormledger finished ${what}.`, '',
+      `Expected fires: ${formatFrequency(f.ignition.rate)} — ${formatOnceIn(f.ignition.rate)} (95 %: ${formatInterval(f.ignition.rate, f.ignition.lo, f.ignition.hi, '/yr')})`,
+      `Induced sparking: ${formatInterval(f.sparking.rate, f.sparking.lo, f.sparking.hi, '/yr')}`,
+      `Direct strikes: ${formatInterval(f.direct.rate, f.direct.lo, f.direct.hi, '/yr')}`,
+      `Average annual loss (AAL): ${formatMoney(f.expectedAnnualLoss.rate, currency)} per year`,
+      '', `Results: ${link}`, '', CAUTION_FULL, '', '— Stormledger',
+    ]
+    return { subject: `Stormledger: run finished — ${run.portfolioName}`, text: lines.join('\n') }
+  }
+  const reason = run.state === 'cancelled' ? 'It was cancelled.' : `It failed: ${run.errorMessage ?? 'unknown cause'}`
+  return {
+    subject: `Stormledger: run ${run.state} — ${run.portfolioName}`,
+    text: [greeting, '', `Stormledger did not finish ${what}. ${reason}`, '', `Details: ${link}`, '', '— Stormledger'].join('\n'),
   }
 }

@@ -3,13 +3,13 @@
 import { and, asc, desc, eq, sql } from 'drizzle-orm'
 import { useDb } from '../db'
 import { assumptionSetVersions, runPortfolioResults, runs, runSiteResults, runSiteSnapshots, runTankResults } from '../db/schema'
-import type { SiteFacts } from '../runs/snapshot'
 import type { SiteInput } from '../../shared/engine/types'
 import { parseAssumptions } from '../../shared/engine/assumptions'
 import { spreadNeighbours, type SpreadNeighbour } from '../../shared/engine/loss'
+import type { ResultFigure } from '../../shared/results/figure'
+import { selectFigures, selectTankFigures, toFigures, type ResultFigures } from './figures'
 
 export type RunRow = typeof runs.$inferSelect
-type PortfolioRow = typeof runPortfolioResults.$inferSelect
 
 export interface RangedFigure { value: number, lo: number | null, hi: number | null }
 
@@ -52,23 +52,25 @@ function atPeriod(summary: StoredYearSummary | null, T: number): RangedFigure {
   return ranged(row.loss, interval?.lo ?? null, interval?.hi ?? null)
 }
 
-export function headline(p: Pick<PortfolioRow, 'ignitionRate' | 'ignitionLo' | 'ignitionHi' | 'sparkingRate' | 'sparkingLo' | 'sparkingHi' | 'directRate' | 'directLo' | 'directHi' | 'expectedAnnualLoss' | 'expectedAnnualLossLo' | 'expectedAnnualLossHi'> & Partial<Pick<PortfolioRow, 'expectedAnnualLossPd' | 'expectedAnnualLossBi'>>, summary: StoredYearSummary | null) {
+/** The headline figures of a portfolio or a site: its result figures, PD / BI split and year summary. */
+export function headline(f: ResultFigures, split: LossSplit | null, summary: StoredYearSummary | null) {
   const tail = summary?.aggregate.find(r => r.returnPeriodYears === TAIL_RETURN_PERIOD)?.tailValueAtRisk ?? null
+  const of = (x: ResultFigure) => ranged(x.rate, x.lo, x.hi)
   return {
-    ignitionPerYear: ranged(p.ignitionRate, p.ignitionLo, p.ignitionHi),
-    sparkingPerYear: ranged(p.sparkingRate, p.sparkingLo, p.sparkingHi),
-    directPerYear: ranged(p.directRate, p.directLo, p.directHi),
-    averageAnnualLoss: ranged(p.expectedAnnualLoss, p.expectedAnnualLossLo, p.expectedAnnualLossHi),
+    ignitionPerYear: of(f.ignition),
+    sparkingPerYear: of(f.sparking),
+    directPerYear: of(f.direct),
+    averageAnnualLoss: of(f.expectedAnnualLoss),
     lossAt100Years: atPeriod(summary, 100),
     lossAt250Years: atPeriod(summary, 250),
     tailValueAtRisk: tail === null ? none : ranged(tail, null, null),
     tailReturnPeriodYears: TAIL_RETURN_PERIOD,
-    averageAnnualLossSplit: lossSplit(p),
+    averageAnnualLossSplit: split,
   }
 }
 
 /** PD / BI of a result row, or null for a run stored before the split (total only). */
-export function lossSplit(p: { expectedAnnualLossPd?: number | null, expectedAnnualLossBi?: number | null }) {
+export function lossSplit(p: { expectedAnnualLossPd?: number | null, expectedAnnualLossBi?: number | null }): LossSplit | null {
   return p.expectedAnnualLossPd === null || p.expectedAnnualLossPd === undefined || p.expectedAnnualLossBi === null || p.expectedAnnualLossBi === undefined
     ? null
     : { propertyDamage: p.expectedAnnualLossPd, businessInterruption: p.expectedAnnualLossBi }
@@ -88,21 +90,26 @@ export function exceedanceSeries(summary: StoredYearSummary | null, name: string
   return series
 }
 
+export interface LossSplit { propertyDamage: number, businessInterruption: number }
+
+/** A run's portfolio figures (with standard errors), PD / BI split (null: total only) and year summary. */
 export async function portfolioResult(runId: string) {
-  const [row] = await useDb().select().from(runPortfolioResults).where(eq(runPortfolioResults.runId, runId))
-  return row ?? null
+  const [row] = await useDb().select({
+    ...selectFigures(runPortfolioResults),
+    expectedAnnualLossPd: runPortfolioResults.expectedAnnualLossPd, expectedAnnualLossBi: runPortfolioResults.expectedAnnualLossBi,
+    yearSummary: runPortfolioResults.yearSummary,
+  }).from(runPortfolioResults).where(eq(runPortfolioResults.runId, runId))
+  if (!row) return null
+  return { figures: toFigures(row), lossSplit: lossSplit(row), yearSummary: row.yearSummary }
 }
+export type PortfolioResult = NonNullable<Awaited<ReturnType<typeof portfolioResult>>>
 
 /** Every site of a run with its figures and the facts frozen at the start of the run. */
 export async function siteResults(runId: string) {
   const rows = await useDb().select({
     siteId: runSiteResults.siteId, facts: runSiteSnapshots.facts,
-    directRate: runSiteResults.directRate, directLo: runSiteResults.directLo, directHi: runSiteResults.directHi,
-    sparkingRate: runSiteResults.sparkingRate, sparkingLo: runSiteResults.sparkingLo, sparkingHi: runSiteResults.sparkingHi,
-    ignitionRate: runSiteResults.ignitionRate, ignitionLo: runSiteResults.ignitionLo, ignitionHi: runSiteResults.ignitionHi,
-    expectedAnnualLoss: runSiteResults.expectedAnnualLoss, expectedAnnualLossLo: runSiteResults.expectedAnnualLossLo, expectedAnnualLossHi: runSiteResults.expectedAnnualLossHi,
+    ...selectFigures(runSiteResults),
     expectedAnnualLossPd: runSiteResults.expectedAnnualLossPd, expectedAnnualLossBi: runSiteResults.expectedAnnualLossBi,
-    ignitionSe: runSiteResults.ignitionSe, expectedAnnualLossSe: runSiteResults.expectedAnnualLossSe,
     radiusM: runSiteResults.radiusM, lambdaPerYear: runSiteResults.lambdaPerYear,
     lossAt100: sql<number | null>`(${runSiteResults.yearSummary} -> 'aggregate' -> 3 ->> 'loss')::float8`,
     tanks: sql<number>`jsonb_array_length(${runSiteSnapshots.site} -> 'tanks')`,
@@ -110,7 +117,37 @@ export async function siteResults(runId: string) {
     .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))
     .where(eq(runSiteResults.runId, runId))
     .orderBy(desc(runSiteResults.ignitionRate), asc(runSiteResults.siteId))
-  return rows.map(r => ({ ...r, facts: r.facts as SiteFacts }))
+  return rows.map(r => ({
+    siteId: r.siteId, facts: r.facts, figures: toFigures(r), lossSplit: lossSplit(r),
+    radiusM: r.radiusM, lambdaPerYear: r.lambdaPerYear, lossAt100: r.lossAt100, tanks: r.tanks,
+  }))
+}
+export type SiteResult = Awaited<ReturnType<typeof siteResults>>[number]
+
+/** What a tank row holds besides its figures. */
+const tankColumns = {
+  tankId: runTankResults.tankId, siteId: runTankResults.siteId, tag: runTankResults.tag,
+  ...selectTankFigures(runTankResults),
+  upperBoundFigures: runTankResults.upperBoundFigures,
+  expectedAnnualLossPd: runTankResults.expectedAnnualLossPd, expectedAnnualLossBi: runTankResults.expectedAnnualLossBi,
+  samples: runTankResults.samples, drivingComponentClass: runTankResults.drivingComponentClass, converged: runTankResults.converged,
+}
+
+function tankResult(r: Awaited<ReturnType<typeof selectTanks>>[number]) {
+  return {
+    tankId: r.tankId, siteId: r.siteId, tag: r.tag,
+    // A figure stopped by the negligible-rate rule is an upper bound (upperBoundOnly).
+    figures: toFigures(r, r.upperBoundFigures), lossSplit: lossSplit(r),
+    samples: r.samples, drivingComponentClass: r.drivingComponentClass, converged: r.converged,
+  }
+}
+const selectTanks = () => useDb().select(tankColumns).from(runTankResults)
+export type TankResult = ReturnType<typeof tankResult>
+
+/** Every tank of a run (by site, then tag), with its figures. */
+export async function tankResults(runId: string): Promise<TankResult[]> {
+  const rows = await selectTanks().where(eq(runTankResults.runId, runId)).orderBy(runTankResults.siteId, runTankResults.tag)
+  return rows.map(tankResult)
 }
 
 /** The sites with the most expected fires in a run (served by the run × ignition index). */
@@ -140,19 +177,25 @@ export async function topTanks(runId: string, limit: number) {
 
 /** One site of a run: its figures, its tanks' figures and its snapshot (engine input and facts). */
 export async function siteDetail(runId: string, siteId: string) {
-  const db = useDb()
-  const [row] = await db.select({ result: runSiteResults, snapshot: runSiteSnapshots }).from(runSiteResults)
+  const [row] = await useDb().select({
+    ...selectFigures(runSiteResults),
+    expectedAnnualLossPd: runSiteResults.expectedAnnualLossPd, expectedAnnualLossBi: runSiteResults.expectedAnnualLossBi,
+    radiusM: runSiteResults.radiusM, yearSummary: runSiteResults.yearSummary, eventBands: runSiteResults.eventBands,
+    site: runSiteSnapshots.site, facts: runSiteSnapshots.facts,
+  }).from(runSiteResults)
     .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))
     .where(and(eq(runSiteResults.runId, runId), eq(runSiteResults.siteId, siteId)))
   if (!row) return null
-  const tanks = await db.select().from(runTankResults)
+  const tanks = await selectTanks()
     .where(and(eq(runTankResults.runId, runId), eq(runTankResults.siteId, siteId))).orderBy(desc(runTankResults.ignitionRate))
-  const { events: _events, ...result } = row.result
   return {
-    result: { ...result, yearSummary: result.yearSummary as StoredYearSummary | null },
-    site: row.snapshot.site as SiteInput,
-    facts: row.snapshot.facts as SiteFacts,
-    tanks,
+    result: {
+      figures: toFigures(row), lossSplit: lossSplit(row), radiusM: row.radiusM, eventBands: row.eventBands,
+      yearSummary: row.yearSummary,
+    },
+    site: row.site,
+    facts: row.facts,
+    tanks: tanks.map(tankResult),
   }
 }
 

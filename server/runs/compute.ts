@@ -5,7 +5,8 @@ import { parseSite } from '../../shared/engine/site-schema'
 import { simulateSiteFrequency } from '../../shared/engine/frequency'
 import { simulateSiteYears } from '../../shared/engine/years'
 import { countEstimate, normalEstimate } from '../../shared/engine/statistics'
-import type { CountEstimate, Estimate, SiteInput } from '../../shared/engine/types'
+import type { CountEstimate, SiteInput } from '../../shared/engine/types'
+import { figureFromCount, figureFromEstimate, type ResultFigure } from '../../shared/results/figure'
 import type { YearLossSummary } from '../../shared/engine/exceedance'
 import type { PackedEvents, PackedSplit } from './events-codec'
 import { siteEventBands, type SiteEventBands } from '../../shared/engine/heatmap'
@@ -28,10 +29,10 @@ export interface SiteTask {
 }
 
 /**
- * A rate per year with its standard error and 95 % interval (the engine's Estimate). Year mode:
- * `count` is the simulated count behind the rate (a whole number) and the interval is Garwood's.
+ * A figure as computed: the shared result figure (shared/results/figure.ts) with its standard error.
+ * Simulated years: `count` is the simulated count behind the rate and the interval is Garwood's.
  */
-export type Figure = Estimate & { count?: number }
+export type Figure = ResultFigure<number>
 
 export interface TankComputation {
   tankId: string
@@ -75,12 +76,8 @@ export interface SiteTiming extends SiteThreadTiming {
 }
 
 
-/** A simulated count as a rate with the Garwood interval and the Poisson standard error √n / Y. */
-export function fromCount(c: CountEstimate, years: number): Figure {
-  return { count: c.count, rate: c.rate, se: Math.sqrt(c.count) / years, lo: c.lo, hi: c.hi }
-}
-
-const fromMean = (m: { mean: number, se: number }): Figure => normalEstimate(m.mean, m.se)
+const fromMean = (m: { mean: number, se: number }): Figure => figureFromEstimate(normalEstimate(m.mean, m.se))
+const fromCount = figureFromCount
 
 /** Candidate flashes behind each site's event-band heatmap (a picture, not a headline figure). */
 const EVENT_BAND_SAMPLES = 40_000
@@ -111,17 +108,17 @@ function computeFrequency(task: SiteTask, prepared: SitePreparation): SiteFigure
     siteId: r.siteId,
     radiusM: r.radiusM,
     lambdaPerYear: r.lambdaPerYear,
-    direct: r.totals.direct,
-    sparking: r.totals.sparking,
-    ignition: r.totals.ignition,
-    expectedAnnualLoss: r.totals.expectedAnnualLoss,
+    direct: figureFromEstimate(r.totals.direct),
+    sparking: figureFromEstimate(r.totals.sparking),
+    ignition: figureFromEstimate(r.totals.ignition),
+    expectedAnnualLoss: figureFromEstimate(r.totals.expectedAnnualLoss),
     expectedAnnualLossPd: r.totals.expectedAnnualLossPd.rate,
     expectedAnnualLossBi: r.totals.expectedAnnualLossBi.rate,
     samples: r.samples,
     tanks: r.tanks.map(t => ({
       tankId: t.tankId, tag: t.tag,
-      direct: t.direct, sparking: t.sparking, ignition: t.ignition,
-      expectedAnnualLoss: t.expectedAnnualLoss,
+      direct: figureFromEstimate(t.direct), sparking: figureFromEstimate(t.sparking), ignition: figureFromEstimate(t.ignition),
+      expectedAnnualLoss: figureFromEstimate(t.expectedAnnualLoss),
       expectedAnnualLossPd: t.expectedAnnualLossPd.rate, expectedAnnualLossBi: t.expectedAnnualLossBi.rate,
       samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
     })),

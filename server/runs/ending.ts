@@ -1,9 +1,10 @@
 // How a run ends other than by success, and the e-mail sent when it ends either way.
 import { and, eq, inArray } from 'drizzle-orm'
 import { useDb } from '../db'
-import { runPortfolioResults, runs, runSiteResults, runTankResults, users } from '../db/schema'
+import { organisations, runPortfolioResults, runs, runSiteResults, runTankResults, users } from '../db/schema'
 import { enqueue } from '../jobs/queue'
-import { runEndedMessage } from '../mail/run-messages'
+import { runEndedMessage } from '../mail/templates'
+import { portfolioResult } from '../results/queries'
 
 const OPEN_STATES = ['queued', 'running'] as const
 
@@ -25,10 +26,11 @@ export async function endRunUnsuccessfully(runId: string, state: 'failed' | 'can
 /** Queues the "run ended" e-mail to the person who started the run. */
 export async function notifyRunEnded(runId: string): Promise<void> {
   const db = useDb()
-  const [row] = await db.select({ run: runs, email: users.email, name: users.name }).from(runs)
+  const [row] = await db.select({ run: runs, email: users.email, name: users.name, currency: organisations.currency }).from(runs)
+    .innerJoin(organisations, eq(organisations.id, runs.organisationId))
     .leftJoin(users, eq(users.id, runs.requestedBy)).where(eq(runs.id, runId))
   if (!row?.email) return
-  const [portfolio] = await db.select().from(runPortfolioResults).where(eq(runPortfolioResults.runId, runId))
-  const message = runEndedMessage({ run: row.run, recipientName: row.name ?? '', portfolio: portfolio ?? null })
+  const portfolio = await portfolioResult(runId)
+  const message = runEndedMessage({ run: row.run, recipientName: row.name ?? '', portfolio, currency: row.currency })
   await enqueue('mail.send', { to: row.email, ...message, organisationId: row.run.organisationId })
 }

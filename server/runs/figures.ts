@@ -1,6 +1,7 @@
 // Combining per-site counts into portfolio figures (pure). Frequency-mode sums use the engine's
 // sumEstimates.
 import { countEstimate } from '../../shared/engine/statistics'
+import { figureFromCount } from '../../shared/results/figure'
 import type { Figure } from './compute'
 
 /**
@@ -11,6 +12,5 @@ import type { Figure } from './compute'
 export function sumCounts(parts: readonly Figure[], years: number): Figure {
   let count = 0
   for (const p of parts) count += p.count ?? Math.round(p.rate * years)
-  const c = countEstimate(count, years)
-  return { count, rate: c.rate, se: Math.sqrt(count) / years, lo: c.lo, hi: c.hi }
+  return figureFromCount(countEstimate(count, years), years)
 }

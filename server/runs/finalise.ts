@@ -7,23 +7,17 @@ import { runPortfolioResults, runs, runSiteResults } from '../db/schema'
 import type { Figure } from './compute'
 import { decodeEvents } from './events-codec'
 import { sumCounts } from './figures'
+import { figureValues, selectFigures, toFigures } from '../results/figures'
+import type { StoredYearSummary } from '../results/queries'
+import { figureFromEstimate, type FigureName } from '../../shared/results/figure'
 import { normalEstimate, sumEstimates } from '../../shared/engine/statistics'
 
-const figureColumns = {
+/** What the roll-up reads of each site: its figures (with standard errors and counts) and the PD / BI split. */
+const siteColumns = {
   siteId: runSiteResults.siteId,
-  directRate: runSiteResults.directRate, directSe: runSiteResults.directSe, directLo: runSiteResults.directLo, directHi: runSiteResults.directHi, directCount: runSiteResults.directCount,
-  sparkingRate: runSiteResults.sparkingRate, sparkingSe: runSiteResults.sparkingSe, sparkingLo: runSiteResults.sparkingLo, sparkingHi: runSiteResults.sparkingHi, sparkingCount: runSiteResults.sparkingCount,
-  ignitionRate: runSiteResults.ignitionRate, ignitionSe: runSiteResults.ignitionSe, ignitionLo: runSiteResults.ignitionLo, ignitionHi: runSiteResults.ignitionHi, ignitionCount: runSiteResults.ignitionCount,
-  expectedAnnualLoss: runSiteResults.expectedAnnualLoss, expectedAnnualLossSe: runSiteResults.expectedAnnualLossSe,
-  expectedAnnualLossLo: runSiteResults.expectedAnnualLossLo, expectedAnnualLossHi: runSiteResults.expectedAnnualLossHi,
+  ...selectFigures(runSiteResults),
   expectedAnnualLossPd: runSiteResults.expectedAnnualLossPd, expectedAnnualLossBi: runSiteResults.expectedAnnualLossBi,
 }
-type SiteRow = { [K in keyof typeof figureColumns]: (typeof runSiteResults.$inferSelect)[K] }
-
-const figure = (r: SiteRow, p: 'direct' | 'sparking' | 'ignition'): Figure =>
-  ({ rate: r[`${p}Rate`], se: r[`${p}Se`], lo: r[`${p}Lo`], hi: r[`${p}Hi`], count: r[`${p}Count`] ?? undefined })
-const lossFigure = (r: SiteRow): Figure =>
-  ({ rate: r.expectedAnnualLoss, se: r.expectedAnnualLossSe, lo: r.expectedAnnualLossLo, hi: r.expectedAnnualLossHi })
 
 interface Table { yearLosses: Float64Array, yearMaxEventLoss: Float64Array }
 const emptyTable = (years: number): Table => ({ yearLosses: new Float64Array(years), yearMaxEventLoss: new Float64Array(years) })
@@ -78,19 +72,20 @@ export async function finaliseRun(runId: string): Promise<boolean> {
     if (!run || run.state !== 'running' || run.chunksDone !== run.chunksTotal) return false
     // Fixed order (by site id) so that sums are bit-identical however the chunks were worked.
     // The figures only: the per-site blobs (events, event bands, year summaries) are not read here.
-    const rows = await tx.select(figureColumns).from(runSiteResults).where(eq(runSiteResults.runId, runId)).orderBy(asc(runSiteResults.siteId))
-    let values: { pd: number, bi: number, direct: Figure, sparking: Figure, ignition: Figure, eal: Figure, yearSummary: object | null }
+    const rows = (await tx.select(siteColumns).from(runSiteResults).where(eq(runSiteResults.runId, runId)).orderBy(asc(runSiteResults.siteId)))
+      .map(r => ({ siteId: r.siteId, expectedAnnualLossPd: r.expectedAnnualLossPd, expectedAnnualLossBi: r.expectedAnnualLossBi, figures: toFigures(r) }))
+    let values: { pd: number, bi: number, direct: Figure, sparking: Figure, ignition: Figure, eal: Figure, yearSummary: StoredYearSummary | null }
     const splitSum = (key: 'expectedAnnualLossPd' | 'expectedAnnualLossBi') => rows.reduce((s, r) => s + (r[key] ?? 0), 0)
     const pd = splitSum('expectedAnnualLossPd')
     const bi = splitSum('expectedAnnualLossBi')
     if (run.mode === 'frequency') {
-      const eal = sumEstimates(rows.map(lossFigure))
+      const sum = (name: FigureName) => figureFromEstimate(sumEstimates(rows.map(r => r.figures[name])))
       values = {
         pd, bi,
-        direct: sumEstimates(rows.map(r => figure(r, 'direct'))),
-        sparking: sumEstimates(rows.map(r => figure(r, 'sparking'))),
-        ignition: sumEstimates(rows.map(r => figure(r, 'ignition'))),
-        eal,
+        direct: sum('direct'),
+        sparking: sum('sparking'),
+        ignition: sum('ignition'),
+        eal: sum('expectedAnnualLoss'),
         yearSummary: null,
       }
     } else {
@@ -105,20 +100,16 @@ export async function finaliseRun(runId: string): Promise<boolean> {
       }
       values = {
         pd: summary.split.propertyDamage.averageAnnualLoss, bi: summary.split.businessInterruption.averageAnnualLoss,
-        direct: sumCounts(rows.map(r => figure(r, 'direct')), run.years),
-        sparking: sumCounts(rows.map(r => figure(r, 'sparking')), run.years),
-        ignition: sumCounts(rows.map(r => figure(r, 'ignition')), run.years),
-        eal: normalEstimate(summary.averageAnnualLoss, summary.averageAnnualLossSe),
+        direct: sumCounts(rows.map(r => r.figures.direct), run.years),
+        sparking: sumCounts(rows.map(r => r.figures.sparking), run.years),
+        ignition: sumCounts(rows.map(r => r.figures.ignition), run.years),
+        eal: figureFromEstimate(normalEstimate(summary.averageAnnualLoss, summary.averageAnnualLossSe)),
         yearSummary: summary,
       }
     }
     await tx.insert(runPortfolioResults).values({
       runId,
-      directCount: values.direct.count ?? null, sparkingCount: values.sparking.count ?? null, ignitionCount: values.ignition.count ?? null,
-      directRate: values.direct.rate, directLo: values.direct.lo, directHi: values.direct.hi, directSe: values.direct.se,
-      sparkingRate: values.sparking.rate, sparkingLo: values.sparking.lo, sparkingHi: values.sparking.hi, sparkingSe: values.sparking.se,
-      ignitionRate: values.ignition.rate, ignitionLo: values.ignition.lo, ignitionHi: values.ignition.hi, ignitionSe: values.ignition.se,
-      expectedAnnualLoss: values.eal.rate, expectedAnnualLossLo: values.eal.lo, expectedAnnualLossHi: values.eal.hi, expectedAnnualLossSe: values.eal.se,
+      ...figureValues({ direct: values.direct, sparking: values.sparking, ignition: values.ignition, expectedAnnualLoss: values.eal }),
       expectedAnnualLossPd: values.pd, expectedAnnualLossBi: values.bi,
       yearSummary: values.yearSummary,
     }).onConflictDoNothing()

@@ -4,17 +4,13 @@ import type { Database } from '../db'
 import { runChunks, runs, runSiteResults, runTankResults } from '../db/schema'
 import type { Figure, SiteComputation } from './compute'
 import { encodeEvents } from './events-codec'
+import { figureValues, tankFigureValues } from '../results/figures'
 import type { ChunkTiming } from './timing'
-
-const cols = (prefix: 'direct' | 'sparking' | 'ignition', f: Figure) => ({
-  [`${prefix}Rate`]: f.rate, [`${prefix}Lo`]: f.lo, [`${prefix}Hi`]: f.hi, [`${prefix}Count`]: f.count ?? null,
-}) as Record<string, number | null>
 
 /** Names of the tank's figures that are upper bounds only (the negligible-rate rule stopped them). */
 const upperBounds = (t: { sparking: Figure, ignition: Figure, expectedAnnualLoss: Figure }) =>
-  (['sparking', 'ignition', 'expectedAnnualLoss'] as const).filter(k => t[k].upperBoundOnly === true)
+  (['sparking', 'ignition', 'expectedAnnualLoss'] as const).filter(k => t[k].upperBoundOnly)
 
-const money = (f: Figure) => ({ expectedAnnualLoss: f.rate, expectedAnnualLossLo: f.lo, expectedAnnualLossHi: f.hi })
 const split = (x: { expectedAnnualLossPd: number, expectedAnnualLossBi: number }) => ({ expectedAnnualLossPd: x.expectedAnnualLossPd, expectedAnnualLossBi: x.expectedAnnualLossBi })
 
 export interface StoredChunk { alreadyDone: boolean, chunksDone: number, chunksTotal: number }
@@ -34,20 +30,19 @@ export async function storeChunk(tx: Database, runId: string, chunkIndex: number
   for (const s of sites) {
     await tx.insert(runSiteResults).values({
       runId, siteId: s.siteId, radiusM: s.radiusM, lambdaPerYear: s.lambdaPerYear,
-      ...cols('direct', s.direct), ...cols('sparking', s.sparking), ...cols('ignition', s.ignition), ...money(s.expectedAnnualLoss), ...split(s),
-      directSe: s.direct.se, sparkingSe: s.sparking.se, ignitionSe: s.ignition.se, expectedAnnualLossSe: s.expectedAnnualLoss.se,
+      ...figureValues(s), ...split(s),
       samples: s.samples,
       yearSummary: s.yearSummary,
       events: s.events ? encodeEvents(s.events) : null,
       eventBands: s.eventBands,
-    } as typeof runSiteResults.$inferInsert)
+    })
     if (s.tanks.length > 0) {
       await tx.insert(runTankResults).values(s.tanks.map(t => ({
         runId, siteId: s.siteId, tankId: t.tankId, tag: t.tag,
-        ...cols('direct', t.direct), ...cols('sparking', t.sparking), ...cols('ignition', t.ignition), ...money(t.expectedAnnualLoss), ...split(t),
+        ...tankFigureValues(t), ...split(t),
         upperBoundFigures: upperBounds(t),
         samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
-      }) as typeof runTankResults.$inferInsert))
+      })))
     }
   }
   await tx.update(runChunks).set({ state: 'done', completedAt: new Date(), worker, timing: timing?.() ?? null })

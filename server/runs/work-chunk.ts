@@ -2,7 +2,6 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm'
 import { hostname } from 'node:os'
 import { parseAssumptions } from '../../shared/engine/assumptions'
-import type { SiteInput } from '../../shared/engine/types'
 import { useDb } from '../db'
 import { assumptionSetVersions, runChunks, runs, runSiteSnapshots } from '../db/schema'
 import type { SiteComputation } from './compute'
@@ -42,7 +41,7 @@ export async function workChunk(runId: string, chunkIndex: number, queuedAt: num
   const snapshotMs = computeStart - pickedUpAt
 
   const handled = await Promise.all(snapshots.map(async (snap) => {
-    const site = snap.site as SiteInput
+    const site = snap.site
     const submittedAt = epochMs()
     try {
       const computation = await computeOnThread({

@@ -111,15 +111,15 @@ const CONTENTS_LABELS: Record<SparkContents, string> = {
 
 function thresholdMeta(): AssumptionParameterMeta[] {
   return (Object.keys(CLASS_LABELS) as ComponentClass[]).flatMap((cls) => [
-    { key: `thresholds.${cls}.u50Kv`, label: `50 % sparking level, ${CLASS_LABELS[cls]}`, unit: 'kV', default: defaultAssumptions.thresholds[cls].u50Kv, source: `${ILLUSTRATIVE} (MODEL.md §4); impulse-test calibration replaces it`, kind: 'number' as const },
-    { key: `thresholds.${cls}.sigma`, label: `Sparking scatter σ (log), ${CLASS_LABELS[cls]}`, unit: '', default: defaultAssumptions.thresholds[cls].sigma, source: `${ILLUSTRATIVE} (MODEL.md §4)`, kind: 'number' as const },
+    { key: `thresholds.${cls}.u50Kv`, label: `50 % sparking level, ${CLASS_LABELS[cls]}`, unit: 'kV', default: defaultAssumptions.thresholds[cls].u50Kv, source: `${ILLUSTRATIVE} (Methodology §4); impulse-test calibration replaces it`, kind: 'number' as const },
+    { key: `thresholds.${cls}.sigma`, label: `Sparking scatter σ (log), ${CLASS_LABELS[cls]}`, unit: '', default: defaultAssumptions.thresholds[cls].sigma, source: `${ILLUSTRATIVE} (Methodology §4)`, kind: 'number' as const },
   ])
 }
 
 function ignitionMeta(): AssumptionParameterMeta[] {
   return (Object.keys(CONTENTS_LABELS) as SparkContents[]).map((c) => ({
     key: `ignitionGivenSpark.${c}`, label: `Ignition given a spark, ${CONTENTS_LABELS[c]}`, unit: 'probability',
-    default: defaultAssumptions.ignitionGivenSpark[c], source: `${ILLUSTRATIVE} (MODEL.md §4)`, kind: 'number' as const,
+    default: defaultAssumptions.ignitionGivenSpark[c], source: `${ILLUSTRATIVE} (Methodology §4)`, kind: 'number' as const,
   }))
 }
 
@@ -129,7 +129,7 @@ const LOSS_LABELS: Record<LossComponent, string> = {
 
 function damageRatioMeta(): AssumptionParameterMeta[] {
   return (Object.keys(LOSS_LABELS) as LossComponent[]).flatMap((c) => [
-    { key: `damageRatio.${c}.mean`, label: `Damage ratio given fire, mean, ${LOSS_LABELS[c]}`, unit: 'share of value (0–1)', default: defaultAssumptions.damageRatio[c].mean, source: `${ILLUSTRATIVE}; beta distribution on [0, 1] (MODEL.md §4)`, kind: 'number' as const },
+    { key: `damageRatio.${c}.mean`, label: `Damage ratio given fire, mean, ${LOSS_LABELS[c]}`, unit: 'share of value (0–1)', default: defaultAssumptions.damageRatio[c].mean, source: `${ILLUSTRATIVE}; beta distribution on [0, 1] (Methodology §4)`, kind: 'number' as const },
     { key: `damageRatio.${c}.sd`, label: `Damage ratio given fire, standard deviation, ${LOSS_LABELS[c]}`, unit: 'share of value (0–1)', default: defaultAssumptions.damageRatio[c].sd, source: `${ILLUSTRATIVE}; must stay below √(mean·(1 − mean))`, kind: 'number' as const },
   ])
 }
@@ -139,35 +139,35 @@ const SPREAD_BASIS = 'from memory: flammable-liquid tank spacing practice (NFPA 
 
 /** One row per parameter, in form order, so the UI can render a form and an assumption-set comparison. */
 export const assumptionParameterMeta: readonly AssumptionParameterMeta[] = Object.freeze([
-  { key: 'attachmentModel', label: 'Attachment rule', unit: '', default: 'egm', kind: 'choice', options: ['egm', 'collection_area'], source: 'Electrogeometric model, rolling-sphere form of IEC 62305-1 (MODEL.md §2); option: IEC 62305-2 collection area (3H)' },
-  { key: 'currentLaw', label: 'Peak-current distribution', unit: '', default: 'power_law', kind: 'choice', options: ['power_law', 'lognormal', 'empirical'], source: 'IEEE Std 1410 power law (Anderson & Eriksson); CIGRE log-normal; empirical from records (MODEL.md §1)' },
+  { key: 'attachmentModel', label: 'Attachment rule', unit: '', default: 'egm', kind: 'choice', options: ['egm', 'collection_area'], source: 'Electrogeometric model, rolling-sphere form of IEC 62305-1 (Methodology §2); option: IEC 62305-2 collection area (3H)' },
+  { key: 'currentLaw', label: 'Peak-current distribution', unit: '', default: 'power_law', kind: 'choice', options: ['power_law', 'lognormal', 'empirical'], source: 'IEEE Std 1410 power law (Anderson & Eriksson); CIGRE log-normal; empirical from records (Methodology §1)' },
   { key: 'powerLawMedianKa', label: 'Power law: median current', unit: 'kA', default: 31, kind: 'number', source: 'IEEE Std 1410 (Anderson & Eriksson 1980)' },
   { key: 'powerLawExponent', label: 'Power law: exponent', unit: '', default: 2.6, kind: 'number', source: 'IEEE Std 1410 (Anderson & Eriksson 1980)' },
   { key: 'lognormalMedianKa', label: 'Log-normal: median current', unit: 'kA', default: 31.1, kind: 'number', source: 'CIGRE first negative strokes (Anderson & Eriksson 1980)' },
   { key: 'lognormalBeta', label: 'Log-normal: log standard deviation β', unit: '', default: 0.484, kind: 'number', source: 'CIGRE first negative strokes (Anderson & Eriksson 1980)' },
-  { key: 'empiricalCurrentsKa', label: 'Empirical: recorded peak currents', unit: 'kA', default: [], kind: 'number_list', source: 'Lightning-location records near the site (calibration, MODEL.md §7)' },
-  { key: 'currentMinKa', label: 'Smallest current simulated (Imin)', unit: 'kA', default: 2, kind: 'number', source: `${ILLUSTRATIVE} (MODEL.md §1)` },
-  { key: 'currentMaxKa', label: 'Largest current simulated (Imax)', unit: 'kA', default: 400, kind: 'number', source: `${ILLUSTRATIVE} (MODEL.md §1)` },
+  { key: 'empiricalCurrentsKa', label: 'Empirical: recorded peak currents', unit: 'kA', default: [], kind: 'number_list', source: 'Lightning-location records near the site (calibration, Methodology §7)' },
+  { key: 'currentMinKa', label: 'Smallest current simulated (Imin)', unit: 'kA', default: 2, kind: 'number', source: `${ILLUSTRATIVE} (Methodology §1)` },
+  { key: 'currentMaxKa', label: 'Largest current simulated (Imax)', unit: 'kA', default: 400, kind: 'number', source: `${ILLUSTRATIVE} (Methodology §1)` },
   { key: 'strikingDistanceA', label: 'Striking distance coefficient A (rs = A·I^b)', unit: 'm/kA^b', default: 10, kind: 'number', source: 'IEC 62305-1 rolling-sphere radii' },
   { key: 'strikingDistanceB', label: 'Striking distance exponent b', unit: '', default: 0.65, kind: 'number', source: 'IEC 62305-1 rolling-sphere radii' },
   { key: 'groundStrikingFactor', label: 'Ground striking factor kg (rg = kg·rs)', unit: '', default: 1, kind: 'number', source: 'Rolling-sphere assumption for structures; IEEE Std 1410 uses 0.9 for lines' },
   { key: 'returnStrokeVelocity', label: 'Return-stroke velocity', unit: 'm/s', default: 1.2e8, kind: 'number', source: 'IEEE Std 1410 (gives the 38.8 Ω simplified Rusk factor)' },
-  { key: 'couplingOverride', label: 'Coupling Kc override (empty: Rusk)', unit: 'Ω (kV per kA·m/m)', default: null, kind: 'optional_number', source: 'Rusk (1958) from the return-stroke velocity unless calibrated (MODEL.md §3)' },
+  { key: 'couplingOverride', label: 'Coupling Kc override (empty: Rusk)', unit: 'Ω (kV per kA·m/m)', default: null, kind: 'optional_number', source: 'Rusk (1958) from the return-stroke velocity unless calibrated (Methodology §3)' },
   ...thresholdMeta(),
   ...ignitionMeta(),
   { key: 'chemicalFlashPointLimitC', label: 'Chemicals: flash-point limit for flammable treatment', unit: '°C', default: 60, kind: 'number', source: 'GHS / UN flammable-liquid boundary (flash point ≤ 60 °C) — common practice' },
   { key: 'ignitionGivenSparkChemicalBelowLimit', label: 'Ignition given a spark, chemical at or below the limit (or unknown)', unit: 'probability', default: 0.4, kind: 'number', source: `${ILLUSTRATIVE}; treated like condensate` },
   { key: 'ignitionGivenSparkChemicalAboveLimit', label: 'Ignition given a spark, chemical above the limit', unit: 'probability', default: 0.02, kind: 'number', source: ILLUSTRATIVE },
-  { key: 'ignitionGivenDirectNonConducting', label: 'Ignition given a direct strike, non-conducting tank with vapour space', unit: 'probability', default: 0.5, kind: 'number', source: `${ILLUSTRATIVE} (MODEL.md §4)` },
-  { key: 'ignitionGivenDirectSteel', label: 'Ignition given a direct strike, steel tank with vapour space', unit: 'probability', default: 0.02, kind: 'number', source: `${ILLUSTRATIVE} (MODEL.md §4)` },
+  { key: 'ignitionGivenDirectNonConducting', label: 'Ignition given a direct strike, non-conducting tank with vapour space', unit: 'probability', default: 0.5, kind: 'number', source: `${ILLUSTRATIVE} (Methodology §4)` },
+  { key: 'ignitionGivenDirectSteel', label: 'Ignition given a direct strike, steel tank with vapour space', unit: 'probability', default: 0.02, kind: 'number', source: `${ILLUSTRATIVE} (Methodology §4)` },
   { key: 'vapourControlFactor', label: 'Vapour-control factor on ignition', unit: '', default: 0.3, kind: 'number', source: ILLUSTRATIVE },
   ...damageRatioMeta(),
-  { key: 'fireSpread.model', label: 'Fire spread to neighbouring tanks', unit: '', default: 'exponential', kind: 'choice', options: ['exponential', 'off'], source: 'p(d) = p0·exp(−d/L) up to dmax, d the shell-to-shell distance (MODEL.md §4); off: no spread' },
+  { key: 'fireSpread.model', label: 'Fire spread to neighbouring tanks', unit: '', default: 'exponential', kind: 'choice', options: ['exponential', 'off'], source: 'p(d) = p0·exp(−d/L) up to dmax, d the shell-to-shell distance (Methodology §4); off: no spread' },
   { key: 'fireSpread.probabilityAtContact', label: 'Fire spread: probability to a touching neighbour (p0)', unit: 'probability', default: 0.25, kind: 'number', source: `${ILLUSTRATIVE}; ${SPREAD_BASIS}` },
   { key: 'fireSpread.decayLengthM', label: 'Fire spread: decay length (L)', unit: 'm', default: 5, kind: 'number', source: `${ILLUSTRATIVE}; ${SPREAD_BASIS}` },
   { key: 'fireSpread.maxDistanceM', label: 'Fire spread: largest shell-to-shell distance reached (dmax)', unit: 'm', default: 25, kind: 'number', source: `${ILLUSTRATIVE}; ${SPREAD_BASIS}` },
   { key: 'flashDensityFormula', label: 'Flash density from thunderstorm days', unit: '', default: 'anderson', kind: 'choice', options: ['anderson', 'iec'], source: 'Anderson 0.04·Td^1.25 (IEEE Std 1410, 1243); IEC 62305-2 0.1·Td' },
-  { key: 'cutoffProbability', label: 'Negligible sparking probability (sets the simulated radius)', unit: 'probability', default: 1e-6, kind: 'number', source: 'MODEL.md §1' },
+  { key: 'cutoffProbability', label: 'Negligible sparking probability (sets the simulated radius)', unit: 'probability', default: 1e-6, kind: 'number', source: 'Methodology §1' },
 ] satisfies AssumptionParameterMeta[])
 
 // ---- validation -------------------------------------------------------------------------------

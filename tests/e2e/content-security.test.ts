@@ -73,7 +73,7 @@ describe('pages under the Content Security Policy', () => {
     await saveScreenshot(g.page, 'profile-sessions')
     await g.page.getByTestId('sign-out-everywhere').click()
     await g.page.waitForURL(/\/sign-in/)
-    const status = await g.page.evaluate(async () => (await fetch('/api/auth/session')).status)
+    const status = await g.page.evaluate(async () => (await fetch('/api/_auth/session')).status)
     expect(status).toBe(401)
     expect(violations).toEqual([])
     expect(cspErrors()).toEqual([])

@@ -24,8 +24,8 @@ describe('own account', () => {
 
     const since = new Date()
     expect((await here.post('/api/auth/change-password', { currentPassword: TEST_PASSWORD, newPassword: 'a fine new passphrase' })).status).toBe(200)
-    expect((await here.get('/api/auth/session')).status).toBe(200)
-    expect((await elsewhere.get('/api/auth/session')).status).toBe(401)
+    expect((await here.get('/api/_auth/session')).status).toBe(200)
+    expect((await elsewhere.get('/api/_auth/session')).status).toBe(401)
     expect((await new Client().signIn(email, 'a fine new passphrase')).status).toBe(200)
     expect((await waitForMail(pool, email, since)).subject).toMatch(/password was changed/)
   })
@@ -37,6 +37,6 @@ describe('own account', () => {
     await client.signIn(email)
     expect((await client.patch('/api/auth/profile', { name: '   ' })).status).toBe(400)
     expect((await client.patch('/api/auth/profile', { name: 'Vera Viewer' })).status).toBe(200)
-    expect((await (await client.get('/api/auth/session')).json()).user.name).toBe('Vera Viewer')
+    expect((await (await client.get('/api/_auth/session')).json()).user.name).toBe('Vera Viewer')
   })
 })

@@ -107,5 +107,11 @@ describe('capital planning', () => {
     await wb.xlsx.load(Buffer.from(await exported.arrayBuffer()) as unknown as ExcelJS.Buffer)
     expect(String(wb.getWorksheet('Plan')!.getCell(1, 2).value)).toContain(CAUTION_TEXT.short)
     expect(wb.getWorksheet('Actions')!.rowCount).toBe(1 + plan.actionIds.length)
+    // Units in the headers (issue #18): money in the organisation's currency, reductions per year.
+    const actions = wb.getWorksheet('Actions')!
+    const headers = (actions.getRow(1).values as unknown[]).map(String)
+    expect(headers).toEqual(expect.arrayContaining(['Cost, USD', 'Expected fires reduction, /yr', 'AAL reduction, USD/yr']))
+    expect(actions.getCell(2, headers.indexOf('Cost, USD')).numFmt).toBe('#,##0')
+    expect(actions.getCell(2, headers.indexOf('Expected fires reduction, /yr')).numFmt).toMatch(/^0\.0{2,8}$/)
   })
 })

@@ -245,8 +245,19 @@ describe('property damage, interruption and layers on a hand-made run', () => {
     const labels = new Map<string, unknown>()
     wb.getWorksheet('Summary')!.eachRow(r => labels.set(String(r.getCell(1).value), r.getCell(2).value))
     const currency = view.currency
-    expect(labels.get(`Average annual loss, ground-up, PD (${currency}/yr)`)).toBe(view.portfolio.propertyDamage.groundUp.averageAnnualLoss)
-    expect(labels.get(`Average annual loss, insurer's share, BI (${currency}/yr)`)).toBe(view.portfolio.businessInterruption.insured.averageAnnualLoss)
+    expect(labels.get(`Average annual loss (AAL), ground-up, PD, ${currency}/yr`)).toBe(view.portfolio.propertyDamage.groundUp.averageAnnualLoss)
+    expect(labels.get(`Average annual loss (AAL), insurer's share, BI, ${currency}/yr`)).toBe(view.portfolio.businessInterruption.insured.averageAnnualLoss)
+    // Units in every header, money in the organisation's currency, shares on [0, 1] as per cent (issue #18).
+    const sites = wb.getWorksheet('Sites')!
+    const headers = (sites.getRow(1).values as unknown[]).map(String)
+    expect(headers).toContain(`AAL, insured, ${currency}/yr`)
+    expect(sites.getCell(2, headers.indexOf(`AAL, insured, ${currency}/yr`)).numFmt).toBe('#,##0')
+    expect(sites.getCell(2, headers.indexOf('Share of years deductible reached, %')).numFmt).toBe('0.0%')
+    expect(sites.getCell(2, headers.indexOf('Insurer\'s share, %')).numFmt).toBe('0.0%')
+    for (const h of headers.slice(5)) expect(h).toMatch(new RegExp(`, (${currency}(/yr)?|%)$`))
+    const exceedance = wb.getWorksheet('Exceedance')!
+    expect(exceedance.getCell(1, 1).value).toBe('Return period, years')
+    expect(exceedance.getCell(2, 2).numFmt).toBe('0.0%')
     const layers = wb.getWorksheet('Layers')!
     expect(layers.getRow(2).getCell(1).value).toBe('Per-occurrence 500 xs 600')
     expect(layers.getRow(2).getCell(5).value).toBe(view.layers[0].expectedLoss)

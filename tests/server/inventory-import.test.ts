@@ -1,6 +1,7 @@
 // Spreadsheet import: preview counts, all-or-nothing commit, re-import and round trip without change,
 // and a clear message for each kind of bad file with nothing written.
 import ExcelJS from 'exceljs'
+import { SHEET_COLUMNS } from '../../shared/inventory-layout'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { createOrganisation, memberClient, type Client } from '../support/accounts'
 import { testPool } from '../support/db'
@@ -81,6 +82,8 @@ describe('import of a good file', () => {
     const exported = Buffer.from(await res.arrayBuffer())
     const wb = new ExcelJS.Workbook()
     await wb.xlsx.load(exported as unknown as ArrayBuffer)
+    // The export keeps the import layout's headers (units in the names), whatever the shared sheet writer adds.
+    expect((wb.getWorksheet('Sites')!.getRow(1).values as unknown[]).slice(1)).toEqual(SHEET_COLUMNS.Sites.map(c => c.header))
     const names = wb.getWorksheet('Sites')!.getColumn(2).values.slice(2)
     const risky = names.find(v => String(v).includes('HYPERLINK'))
     // OWASP CSV-injection guidance: text starting with "=" is written with a leading apostrophe, as a string.

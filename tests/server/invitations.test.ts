@@ -84,12 +84,12 @@ describe('invitations', () => {
     expect(accepted.status).toBe(200)
     expect(await accepted.json()).toMatchObject({ signedIn: true, accountCreated: false })
     expect(await memberships()).toBe(2)
-    expect(await (await client.get('/api/auth/session')).json()).toMatchObject({ organisation: { id: org }, role: 'underwriter' })
+    expect(await (await client.get('/api/_auth/session')).json()).toMatchObject({ organisationId: org, role: 'underwriter' })
     await pool.query(`DELETE FROM sign_in_attempts`) // this file's failed attempts must not throttle later tests
 
     const signIn = await (await new Client().signIn(email)).json()
     expect(signIn).toMatchObject({ organisationId: org, role: 'underwriter' })
-    const session = await (await client.get('/api/auth/session')).json()
+    const session = await (await client.get('/api/_auth/session')).json()
     expect(session.memberships.map((m: { organisationName: string, role: string }) => `${m.organisationName}:${m.role}`).sort())
       .toEqual(['Existing Home Operator:admin', 'Invitation Insurer:underwriter'])
 
@@ -114,18 +114,18 @@ describe('invitations', () => {
     const accepted = await person.post(`/api/invitations/accept/${token}`, {})
     expect(accepted.status).toBe(200)
     // The same session carries on, now in the organisation just joined.
-    expect(await (await person.get('/api/auth/session')).json()).toMatchObject({ organisation: { id: elsewhere }, role: 'viewer' })
+    expect(await (await person.get('/api/_auth/session')).json()).toMatchObject({ organisationId: elsewhere, role: 'viewer' })
   })
 
   it('creates a new account while somebody else is signed in without touching their session', async () => {
     const bystander = await memberClient(pool, org, 'viewer')
-    const before = await (await bystander.get('/api/auth/session')).json()
+    const before = await (await bystander.get('/api/_auth/session')).json()
     const { token } = await invite('fresh.colleague@example.test', 'analyst')
     expect((await (await bystander.get(`/api/invitations/accept/${token}`)).json()).signedInAsOther).toBe(false)
     const res = await bystander.post(`/api/invitations/accept/${token}`, { name: 'Fresh Colleague', password: 'storm season passphrase' })
     expect(res.status).toBe(200)
     expect((await res.json()).signedIn).toBe(false)
-    expect((await (await bystander.get('/api/auth/session')).json()).user).toEqual(before.user)
+    expect((await (await bystander.get('/api/_auth/session')).json()).user).toEqual(before.user)
   })
 
   it('refuses to invite an existing member, replaces an open invitation, and can withdraw or resend one', async () => {

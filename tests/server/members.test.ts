@@ -20,7 +20,7 @@ describe('members', () => {
 
     expect((await admin.patch(`/api/members/${membershipId}`, { role: 'admin' })).status).toBe(200)
     expect((await analyst.get('/api/members')).status).toBe(200) // same session, new role
-    expect((await (await analyst.get('/api/auth/session')).json()).role).toBe('admin')
+    expect((await (await analyst.get('/api/_auth/session')).json()).role).toBe('admin')
 
     const { rows } = await pool.query(`SELECT before, after FROM audit_events WHERE action = 'role_change' AND entity_id = $1`, [membershipId])
     expect(rows).toEqual([{ before: { email, role: 'analyst' }, after: { email, role: 'admin' } }])
@@ -40,7 +40,7 @@ describe('members', () => {
     const second = new Client()
     await second.signIn(secondEmail)
     expect((await admin.delete(`/api/members/${secondMembership}`)).status).toBe(200)
-    expect((await second.get('/api/auth/session')).status).toBe(401)
+    expect((await second.get('/api/_auth/session')).status).toBe(401)
     const { rows } = await pool.query(`SELECT before FROM audit_events WHERE action = 'delete' AND entity = 'membership' AND entity_id = $1`, [secondMembership])
     expect(rows[0].before).toMatchObject({ email: secondEmail, role: 'admin' })
     // The account itself stays.

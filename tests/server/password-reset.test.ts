@@ -60,7 +60,7 @@ describe('password reset', () => {
     const phone = new Client()
     await laptop.signIn(email)
     await phone.signIn(email)
-    expect((await laptop.get('/api/auth/session')).status).toBe(200)
+    expect((await laptop.get('/api/_auth/session')).status).toBe(200)
 
     const token = await requestLink(email)
     expect((await new Client().get(`/api/auth/reset-password/${token}`)).status).toBe(200)
@@ -73,7 +73,7 @@ describe('password reset', () => {
     const since = new Date()
     expect((await new Client().post(`/api/auth/reset-password/${token}`, { password: 'a brand new passphrase' })).status).toBe(200)
     // Every session that began before the reset has ended.
-    expect((await laptop.get('/api/auth/session')).status).toBe(401)
+    expect((await laptop.get('/api/_auth/session')).status).toBe(401)
     expect((await phone.get('/api/members')).status).toBe(401)
     expect((await new Client().signIn(email, TEST_PASSWORD)).status).toBe(401)
     expect((await new Client().signIn(email, 'a brand new passphrase')).status).toBe(200)

@@ -16,6 +16,8 @@ const HOSTILE_NAME = '=HYPERLINK("http://example.invalid","open me")'
 
 beforeAll(async () => {
   const org = await createOrganisation(pool, 'Results Test Insurer', 'insurer')
+  // Money in the organisation's currency, not USD: the workbook's headers must say EUR.
+  await pool.query(`UPDATE organisations SET currency = 'EUR' WHERE id = $1`, [org])
   analyst = await memberClient(pool, org, 'analyst')
   underwriter = await memberClient(pool, org, 'underwriter')
   viewer = await memberClient(pool, org, 'viewer')
@@ -82,7 +84,19 @@ describe('results of a run', () => {
     const provenance = summary.getColumn(1).values.map(String)
     for (const label of ['Run id', 'Seed', 'Engine version', 'Assumption set', 'Input hash (sha-256)', 'Exported by']) expect(provenance).toContain(label)
     const sites = wb.getWorksheet('Sites')!
-    expect(sites.getRow(1).values).toContain('expected_fires_per_yr')
+    const headers = (sites.getRow(1).values as unknown[]).map(String)
+    expect(headers).toContain('Expected fires, /yr')
+    // Units in every header except the names (issue #18): money in the organisation's currency.
+    expect(headers).toContain('Average annual loss (AAL), EUR/yr')
+    for (const h of headers.slice(4)) expect(h).toMatch(/, (\/yr|EUR\/yr|EUR|m|count|° \(WGS 84\))$/)
+    // Readable formats: frequencies with fixed decimals (never 0.000E+00), money in whole units.
+    const fires = sites.getCell(2, headers.indexOf('Expected fires, /yr')).numFmt
+    expect(fires).toMatch(/^0\.0{2,8}$/)
+    expect(sites.getCell(2, headers.indexOf('Average annual loss (AAL), EUR/yr')).numFmt).toBe('#,##0')
+    expect(summary.getCell(6, 2).numFmt).toMatch(/^0\.0{2,8}$/)
+    expect(summary.getCell(9, 1).value).toBe('Average annual loss (AAL), EUR/yr')
+    const tanks = wb.getWorksheet('Tanks')!
+    for (let c = 1; c <= tanks.columnCount; c++) expect(String(tanks.getCell(2, c).numFmt ?? '')).not.toMatch(/E\+/)
     const names = sites.getColumn(1).values.slice(2) as unknown[]
     // Every cell is a plain string: no formula object, and the hostile one starts with an apostrophe (OWASP guidance).
     for (const v of names) expect(typeof v).toBe('string')

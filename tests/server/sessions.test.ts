@@ -35,9 +35,9 @@ describe('session records', () => {
     expect(rows[0].revoked_at).toBeNull()
 
     const stolen = copyOf(laptop)
-    expect((await stolen.get('/api/auth/session')).status).toBe(200)
+    expect((await stolen.get('/api/_auth/session')).status).toBe(200)
     expect((await laptop.post('/api/auth/sign-out')).status).toBe(200)
-    expect((await stolen.get('/api/auth/session')).status).toBe(401)
+    expect((await stolen.get('/api/_auth/session')).status).toBe(401)
     expect((await stolen.get('/api/sites')).status).toBe(401)
     expect((await stolen.post('/api/portfolios', { name: 'After sign-out' })).status).toBe(401)
     const after = await pool.query(`SELECT revoked_at FROM user_sessions WHERE id = $1`, [rows[0].id])
@@ -57,7 +57,7 @@ describe('session records', () => {
     const client = await signedIn(email)
     // 7 days: the session lifetime in the README ("Sessions … last 7 days").
     await pool.query(`UPDATE user_sessions SET created_at = now() - interval '7 days 1 minute' WHERE user_id = $1`, [userId])
-    expect((await client.get('/api/auth/session')).status).toBe(401)
+    expect((await client.get('/api/_auth/session')).status).toBe(401)
   })
 
   it('revokes the record when the cookie is cleared through the session module too', async () => {
@@ -65,7 +65,7 @@ describe('session records', () => {
     const client = await signedIn(email)
     const stolen = copyOf(client)
     expect((await client.request('DELETE', '/api/_auth/session')).status).toBe(200)
-    expect((await stolen.get('/api/auth/session')).status).toBe(401)
+    expect((await stolen.get('/api/_auth/session')).status).toBe(401)
   })
 
   it('lists the person\'s own sessions and signs out everywhere', async () => {
@@ -84,9 +84,9 @@ describe('session records', () => {
     const ended = await laptop.post('/api/auth/sessions/sign-out-everywhere')
     expect(ended.status).toBe(200)
     expect((await ended.json()).sessionsEnded).toBe(2)
-    expect((await phone.get('/api/auth/session')).status).toBe(401)
-    expect((await copyOf(laptop).get('/api/auth/session')).status).toBe(401)
-    expect((await someoneElse.get('/api/auth/session')).status).toBe(200)
+    expect((await phone.get('/api/_auth/session')).status).toBe(401)
+    expect((await copyOf(laptop).get('/api/_auth/session')).status).toBe(401)
+    expect((await someoneElse.get('/api/_auth/session')).status).toBe(200)
     // Signing in again works.
     expect((await new Client().signIn(email, TEST_PASSWORD)).status).toBe(200)
   })
@@ -97,8 +97,8 @@ describe('session records', () => {
     const phone = await signedIn(email)
     const res = await laptop.post('/api/auth/change-password', { currentPassword: TEST_PASSWORD, newPassword: 'another long passphrase' })
     expect(res.status).toBe(200)
-    expect((await laptop.get('/api/auth/session')).status).toBe(200)
-    expect((await phone.get('/api/auth/session')).status).toBe(401)
+    expect((await laptop.get('/api/_auth/session')).status).toBe(200)
+    expect((await phone.get('/api/_auth/session')).status).toBe(401)
     expect((await (await laptop.get('/api/auth/sessions')).json()).sessions).toHaveLength(1)
   })
 

@@ -187,9 +187,16 @@ describe('the storm report', () => {
     expect(String(wb.getWorksheet('Summary')!.getCell(2, 2).value)).toContain('not a lightning-protection design')
     expect(wb.getWorksheet('Tanks')!.getCell(2, 4).value).toBe('T-1')
     const sitesSheet = wb.getWorksheet('Sites')!
-    expect(sitesSheet.getCell(1, 6).value).toBe('expected_insured_loss_USD')
+    expect(sitesSheet.getCell(1, 6).value).toBe('Expected insured loss, USD')
     expect(Number(sitesSheet.getCell(2, 6).value)).toBeGreaterThan(60_000) // the insured expectation of the report above
     expect(String(sitesSheet.getCell(2, 10).value)).toContain('exact')
+    // Units in the headers, probabilities with fixed decimals (never 0.000E+00), money in the currency (issue #18).
+    const tanks = wb.getWorksheet('Tanks')!
+    const headers = (tanks.getRow(1).values as unknown[]).map(String)
+    expect(headers).toContain('P(fire), probability')
+    expect(tanks.getCell(2, headers.indexOf('P(fire), probability')).numFmt).toMatch(/^0\.0{2,8}$/)
+    expect(headers).toContain('Expected ground-up loss, USD')
+    expect(tanks.getCell(2, headers.indexOf('Expected ground-up loss, USD')).numFmt).toBe('#,##0')
     const otherOrg = await createOrganisation(pool, 'Storm Bystander')
     const stranger = await memberClient(pool, otherOrg, 'underwriter')
     expect((await stranger.get(`/api/storms/windows/${windowId}`)).status).toBe(404)

@@ -6,7 +6,8 @@ import { portfolioSites, sites } from '~~/server/db/schema'
 import { inventoryRows } from '~~/server/inventory/export'
 import { writeInventoryWorkbook } from '~~/server/inventory/workbook'
 import { findReadablePortfolio } from '~~/server/inventory/access'
-import { setDownloadHeaders, fileDate } from '~~/server/utils/downloads'
+import { fileDate } from '~~/server/utils/downloads'
+import { sendWorkbook } from '~~/server/utils/sheets'
 
 const query = z.object({ portfolioId: z.uuid().optional() })
 
@@ -23,6 +24,5 @@ export default defineEventHandler(async (event) => {
   }
   const body = await writeInventoryWorkbook(await inventoryRows(db, siteIds))
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'inventory', entityId: portfolioId ?? null, after: { sites: siteIds.length } }, { event })
-  setDownloadHeaders(event, `stormledger-inventory-${fileDate()}.xlsx`)
-  return body
+  return sendWorkbook(event, body, `stormledger-inventory-${fileDate()}.xlsx`)
 })

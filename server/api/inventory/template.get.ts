@@ -1,10 +1,9 @@
 // GET /api/inventory/template — the empty import workbook (sheets Sites, Tanks, Structures; notes and drop-downs).
 import { writeInventoryWorkbook } from '~~/server/inventory/workbook'
-import { setDownloadHeaders } from '~~/server/utils/downloads'
+import { sendWorkbook } from '~~/server/utils/sheets'
 
 export default defineEventHandler(async (event) => {
   await requireMembership(event)
   const body = await writeInventoryWorkbook()
-  setDownloadHeaders(event, 'stormledger-inventory-template.xlsx')
-  return body
+  return sendWorkbook(event, body, 'stormledger-inventory-template.xlsx')
 })

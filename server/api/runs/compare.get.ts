@@ -5,9 +5,15 @@ import { z } from 'zod'
 import { assumptionParameterMeta } from '~~/shared/engine/assumptions'
 import { getPath } from '~~/shared/paths'
 import { findVersion } from '~~/server/assumptions/versions'
-import { findSucceededRun, portfolioResult, siteResults } from '~~/server/results/queries'
+import { findSucceededRun, portfolioResult, siteResults, type SiteResult } from '~~/server/results/queries'
+import type { ResultFigures } from '~~/server/results/figures'
+import type { ResultFigure } from '~~/shared/results/figure'
 import { changeVersusNoise } from '~~/shared/results/noise'
 import type { NoiseOptions } from '~~/shared/results/noise'
+
+/** A run's totals as [estimate, 95 % low, 95 % high]. */
+const triple = (f: ResultFigure) => [f.rate, f.lo, f.hi]
+const totals = (f: ResultFigures) => ({ ignition: triple(f.ignition), sparking: triple(f.sparking), direct: triple(f.direct), eal: triple(f.expectedAnnualLoss) })
 
 const query = z.object({ a: z.uuid('Choose the first run.'), b: z.uuid('Choose the second run.') })
 
@@ -24,11 +30,13 @@ export default defineEventHandler(async (event) => {
   // Same seed: streams coincide per site and tank (errors correlated, the combined SE is conservative);
   // same seed and inputs: the results are bit-identical by construction.
   const noise: NoiseOptions = { sharedSeed: runA.seed === runB.seed, sameInputsAndSeed: runA.inputHash === runB.inputHash }
-  type SiteRow = (typeof sa)[number]
-  const side = (s: SiteRow | undefined) => s ? { ignition: s.ignitionRate, ignitionSe: s.ignitionSe, eal: s.expectedAnnualLoss, ealSe: s.expectedAnnualLossSe } : null
-  const versus = (x: SiteRow | undefined, y: SiteRow | undefined) => ({
-    ignition: changeVersusNoise(x ? { value: x.ignitionRate, se: x.ignitionSe } : null, y ? { value: y.ignitionRate, se: y.ignitionSe } : null, noise),
-    eal: changeVersusNoise(x ? { value: x.expectedAnnualLoss, se: x.expectedAnnualLossSe } : null, y ? { value: y.expectedAnnualLoss, se: y.expectedAnnualLossSe } : null, noise),
+  const side = (s: SiteResult | undefined) => s ? { ignition: s.figures.ignition.rate, ignitionSe: s.figures.ignition.se, eal: s.figures.expectedAnnualLoss.rate, ealSe: s.figures.expectedAnnualLoss.se } : null
+  // The figure's estimate and standard error, as changeVersusNoise reads them.
+  const noiseOf = (f: ResultFigure<number> | undefined) => f ? { value: f.rate, se: f.se } : null
+  const change = (x: ResultFigure<number> | undefined, y: ResultFigure<number> | undefined) => changeVersusNoise(noiseOf(x), noiseOf(y), noise)
+  const versus = (x: SiteResult | undefined, y: SiteResult | undefined) => ({
+    ignition: change(x?.figures.ignition, y?.figures.ignition),
+    eal: change(x?.figures.expectedAnnualLoss, y?.figures.expectedAnnualLoss),
   })
   const bySite = new Map(sb.map(s => [s.siteId, s]))
   const sites = sa.map((s) => {
@@ -44,15 +52,12 @@ export default defineEventHandler(async (event) => {
     currency: member.currency,
     portfolioName: runA.portfolioName,
     runs: { a: describe(runA, va), b: describe(runB, vb) },
-    totals: {
-      a: pa && { ignition: [pa.ignitionRate, pa.ignitionLo, pa.ignitionHi], sparking: [pa.sparkingRate, pa.sparkingLo, pa.sparkingHi], direct: [pa.directRate, pa.directLo, pa.directHi], eal: [pa.expectedAnnualLoss, pa.expectedAnnualLossLo, pa.expectedAnnualLossHi] },
-      b: pb && { ignition: [pb.ignitionRate, pb.ignitionLo, pb.ignitionHi], sparking: [pb.sparkingRate, pb.sparkingLo, pb.sparkingHi], direct: [pb.directRate, pb.directLo, pb.directHi], eal: [pb.expectedAnnualLoss, pb.expectedAnnualLossLo, pb.expectedAnnualLossHi] },
-    },
+    totals: { a: pa && totals(pa.figures), b: pb && totals(pb.figures) },
     totalsNoise: pa && pb ? {
-      ignition: changeVersusNoise({ value: pa.ignitionRate, se: pa.ignitionSe }, { value: pb.ignitionRate, se: pb.ignitionSe }, noise),
-      sparking: changeVersusNoise({ value: pa.sparkingRate, se: pa.sparkingSe }, { value: pb.sparkingRate, se: pb.sparkingSe }, noise),
-      direct: changeVersusNoise({ value: pa.directRate, se: pa.directSe }, { value: pb.directRate, se: pb.directSe }, noise),
-      eal: changeVersusNoise({ value: pa.expectedAnnualLoss, se: pa.expectedAnnualLossSe }, { value: pb.expectedAnnualLoss, se: pb.expectedAnnualLossSe }, noise),
+      ignition: change(pa.figures.ignition, pb.figures.ignition),
+      sparking: change(pa.figures.sparking, pb.figures.sparking),
+      direct: change(pa.figures.direct, pb.figures.direct),
+      eal: change(pa.figures.expectedAnnualLoss, pb.figures.expectedAnnualLoss),
     } : null,
     noiseBasis: noise.sameInputsAndSeed ? 'same_inputs_and_seed' : noise.sharedSeed ? 'shared_seed' : 'independent',
     sites,

@@ -1,13 +1,14 @@
-import { bigint, boolean, customType, doublePrecision, index, integer, jsonb, numeric, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
+import { bigint, boolean, customType, doublePrecision, index, integer, jsonb, pgEnum, pgTable, primaryKey, text, timestamp, uniqueIndex, uuid } from 'drizzle-orm/pg-core'
 import { organisations, users } from './accounts'
 import { timestamps } from './columns'
+import { moneyColumn, resultFigureColumns, resultStandardErrorColumns } from './figures'
 import { sql } from 'drizzle-orm'
 import type { ChunkTiming } from '../../runs/timing'
+import type { StoredYearSummary } from '../../results/queries'
+import type { SiteFacts } from '../../runs/snapshot'
+import type { SiteInput } from '../../../shared/engine/types'
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
-
-/** Money figures derived from simulations: numeric with cents, read as numbers. */
-const money = (name: string) => numeric(name, { precision: 20, scale: 2, mode: 'number' })
 
 export const runMode = pgEnum('run_mode', ['frequency', 'year'])
 export const runState = pgEnum('run_state', ['queued', 'running', 'succeeded', 'failed', 'cancelled'])
@@ -90,8 +91,8 @@ export const runSiteSnapshots = pgTable('run_site_snapshots', {
   runId: uuid('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
   siteId: uuid('site_id').notNull(),
   position: integer('position').notNull(),
-  site: jsonb('site').notNull(),
-  facts: jsonb('facts').notNull(),
+  site: jsonb('site').$type<SiteInput>().notNull(),
+  facts: jsonb('facts').$type<SiteFacts>().notNull(),
 }, t => [primaryKey({ columns: [t.runId, t.siteId] }), index('run_site_snapshots_position_idx').on(t.runId, t.position)])
 
 export const runChunks = pgTable('run_chunks', {
@@ -106,48 +107,13 @@ export const runChunks = pgTable('run_chunks', {
   timing: jsonb('timing').$type<ChunkTiming | Record<string, never>>(),
 }, t => [primaryKey({ columns: [t.runId, t.chunkIndex] })])
 
-/** Annual frequencies (/yr) with 95 % intervals, and the expected annual loss with its interval. */
-const figureColumns = () => ({
-  directRate: doublePrecision('direct_rate').notNull(),
-  directLo: doublePrecision('direct_lo').notNull(),
-  directHi: doublePrecision('direct_hi').notNull(),
-  sparkingRate: doublePrecision('sparking_rate').notNull(),
-  sparkingLo: doublePrecision('sparking_lo').notNull(),
-  sparkingHi: doublePrecision('sparking_hi').notNull(),
-  ignitionRate: doublePrecision('ignition_rate').notNull(),
-  ignitionLo: doublePrecision('ignition_lo').notNull(),
-  ignitionHi: doublePrecision('ignition_hi').notNull(),
-  /** Organisation currency per year. */
-  expectedAnnualLoss: money('expected_annual_loss').notNull(),
-  expectedAnnualLossLo: money('expected_annual_loss_lo').notNull(),
-  expectedAnnualLossHi: money('expected_annual_loss_hi').notNull(),
-})
-
 /**
  * Expected annual loss split into property damage (replacement + contents + clean-up) and business
  * interruption, organisation currency per year. Null for runs of engine 1, which kept the total only.
  */
 const lossSplitColumns = () => ({
-  expectedAnnualLossPd: money('expected_annual_loss_pd'),
-  expectedAnnualLossBi: money('expected_annual_loss_bi'),
-})
-
-/**
- * Year mode: the simulated counts behind the rates (whole numbers; the Garwood interval is on them).
- * Null in frequency mode.
- */
-const countColumns = () => ({
-  directCount: bigint('direct_count', { mode: 'number' }),
-  sparkingCount: bigint('sparking_count', { mode: 'number' }),
-  ignitionCount: bigint('ignition_count', { mode: 'number' }),
-})
-
-/** Standard errors (frequency mode; year mode: from the counts), so roll-ups can combine them. */
-const standardErrorColumns = () => ({
-  directSe: doublePrecision('direct_se').notNull(),
-  sparkingSe: doublePrecision('sparking_se').notNull(),
-  ignitionSe: doublePrecision('ignition_se').notNull(),
-  expectedAnnualLossSe: doublePrecision('expected_annual_loss_se').notNull(),
+  expectedAnnualLossPd: moneyColumn('expected_annual_loss_pd'),
+  expectedAnnualLossBi: moneyColumn('expected_annual_loss_bi'),
 })
 
 export const runTankResults = pgTable('run_tank_results', {
@@ -155,9 +121,9 @@ export const runTankResults = pgTable('run_tank_results', {
   siteId: uuid('site_id').notNull(),
   tankId: uuid('tank_id').notNull(),
   tag: text('tag').notNull(),
-  ...figureColumns(),
+  // The figures (server/db/schema/figures.ts): rates, intervals, simulated counts; tanks keep no standard errors.
+  ...resultFigureColumns(),
   ...lossSplitColumns(),
-  ...countColumns(),
   /** Figures stopped by the negligible-rate rule ('sparking', 'ignition', 'expectedAnnualLoss'): their hi is an upper bound, lo is 0. */
   upperBoundFigures: text('upper_bound_figures').array().notNull().default(sql`'{}'::text[]`),
   samples: bigint('samples', { mode: 'number' }).notNull(),
@@ -175,13 +141,13 @@ export const runSiteResults = pgTable('run_site_results', {
   /** R of MODEL.md §1 and λ on that disc (flashes/yr). */
   radiusM: doublePrecision('radius_m').notNull(),
   lambdaPerYear: doublePrecision('lambda_per_year').notNull(),
-  ...figureColumns(),
+  // The figures (server/db/schema/figures.ts): rates, intervals, simulated counts, standard errors.
+  ...resultFigureColumns(),
+  ...resultStandardErrorColumns(),
   ...lossSplitColumns(),
-  ...countColumns(),
-  ...standardErrorColumns(),
   samples: bigint('samples', { mode: 'number' }).notNull(),
   /** Year mode: the site's summary (AAL, return-period losses, TVaR) and its loss events (packed). */
-  yearSummary: jsonb('year_summary'),
+  yearSummary: jsonb('year_summary').$type<StoredYearSummary>(),
   events: bytea('events'),
   /** Share of events by current band × distance band (site heatmap). */
   eventBands: jsonb('event_bands'),
@@ -192,12 +158,12 @@ export const runSiteResults = pgTable('run_site_results', {
 
 export const runPortfolioResults = pgTable('run_portfolio_results', {
   runId: uuid('run_id').primaryKey().references(() => runs.id, { onDelete: 'cascade' }),
-  ...figureColumns(),
+  // The figures (server/db/schema/figures.ts): rates, intervals, simulated counts, standard errors.
+  ...resultFigureColumns(),
+  ...resultStandardErrorColumns(),
   ...lossSplitColumns(),
-  ...countColumns(),
-  ...standardErrorColumns(),
   /** Year mode: AAL, aggregate/occurrence losses at 10…1000 years, TVaR and the curves. */
-  yearSummary: jsonb('year_summary'),
+  yearSummary: jsonb('year_summary').$type<StoredYearSummary>(),
   computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
 })
 

@@ -21,7 +21,6 @@ export const rules: RouteRule[] = [
 
   // One's own session and account: every member.
   { method: 'POST', file: 'server/api/auth/sign-out.post.ts', path: '/api/auth/sign-out', allowed: EVERYONE },
-  { method: 'GET', file: 'server/api/auth/session.get.ts', path: '/api/auth/session', allowed: EVERYONE },
   { method: 'POST', file: 'server/api/auth/switch-organisation.post.ts', path: '/api/auth/switch-organisation', allowed: EVERYONE },
   { method: 'POST', file: 'server/api/auth/change-password.post.ts', path: '/api/auth/change-password', allowed: EVERYONE },
   { method: 'PATCH', file: 'server/api/auth/profile.patch.ts', path: '/api/auth/profile', allowed: EVERYONE },

@@ -1,6 +1,6 @@
 // GET /api/runs/:id/dashboard — headline figures with intervals, exceedance curves and what drives
 // the total (top sites and tanks by expected fires) for a succeeded run.
-import { exceedanceSeries, findSucceededRun, headline, portfolioResult, topSites, topTanks, type StoredYearSummary } from '~~/server/results/queries'
+import { exceedanceSeries, findSucceededRun, headline, portfolioResult, topSites, topTanks } from '~~/server/results/queries'
 import { cachedJson } from '~~/server/results/cache'
 
 const DRIVERS = 10
@@ -15,16 +15,16 @@ export default defineEventHandler(async (event) => {
   return cachedJson(`dashboard:${run.id}:${member.currency}`, async () => {
     const [portfolio, sites, tanks] = await Promise.all([portfolioResult(run.id), topSites(run.id, DRIVERS), topTanks(run.id, DRIVERS)])
     if (!portfolio) notFound('Results of this run')
-    const summary = portfolio.yearSummary as StoredYearSummary | null
+    const summary = portfolio.yearSummary
     return {
       run: { id: run.id, mode: run.mode, seed: run.seed, portfolioId: run.portfolioId, portfolioName: run.portfolioName, finishedAt: run.finishedAt, years: run.years, engineVersion: run.engineVersion, inputHash: run.inputHash },
       currency: member.currency,
-      headline: headline(portfolio, summary),
+      headline: headline(portfolio.figures, portfolio.lossSplit, summary),
       exceedance: exceedanceSeries(summary, run.portfolioName),
       returnPeriods: summary ? { aggregate: summary.aggregate, occurrence: summary.occurrence, intervals: summary.intervals ?? null } : null,
       drivers: {
         metric: 'ignitionPerYear',
-        total: portfolio.ignitionRate,
+        total: portfolio.figures.ignition.rate,
         sites: sites.map(s => ({ id: s.siteId, label: s.name, kind: 'site' as const, value: s.ignitionRate, detail: `${s.operatorName} · ${s.tanks} tanks`, to: `/results/${run.id}/sites/${s.siteId}` })),
         tanks: tanks.map(t => ({ id: t.tankId, label: t.tag, kind: 'tank' as const, value: t.ignitionRate, detail: t.siteName, to: `/results/${run.id}/sites/${t.siteId}#tank-${t.tankId}` })),
       },

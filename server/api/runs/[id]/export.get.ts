@@ -1,12 +1,12 @@
 // GET /api/runs/:id/export — the results workbook of a succeeded run (everyone but viewers); audited.
 import { eq } from 'drizzle-orm'
 import { useDb } from '~~/server/db'
-import { runTankResults, users } from '~~/server/db/schema'
+import { users } from '~~/server/db/schema'
 import { findVersion } from '~~/server/assumptions/versions'
-import { findSucceededRun, portfolioResult, siteResults } from '~~/server/results/queries'
+import { findSucceededRun, portfolioResult, siteResults, tankResults } from '~~/server/results/queries'
 import { writeResultsWorkbook } from '~~/server/results/workbook'
 import { settings } from '~~/server/settings'
-import { setDownloadHeaders } from '~~/server/utils/downloads'
+import { sendWorkbook } from '~~/server/utils/sheets'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
@@ -16,7 +16,7 @@ export default defineEventHandler(async (event) => {
   const db = useDb()
   const [portfolio, sites, tanks, version, requester] = await Promise.all([
     portfolioResult(run.id), siteResults(run.id),
-    db.select().from(runTankResults).where(eq(runTankResults.runId, run.id)).orderBy(runTankResults.siteId, runTankResults.tag),
+    tankResults(run.id),
     findVersion(member.organisationId, run.assumptionVersionId),
     run.requestedBy ? db.select({ name: users.name }).from(users).where(eq(users.id, run.requestedBy)) : Promise.resolve([]),
   ])
@@ -27,6 +27,5 @@ export default defineEventHandler(async (event) => {
     requestedBy: requester[0]?.name ?? null, exportedBy: member.user.name,
   })
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'run', entityId: run.id, after: { workbook: 'results' } }, { event })
-  setDownloadHeaders(event, `stormledger-results-${run.id.slice(0, 8)}.xlsx`)
-  return buffer
+  return sendWorkbook(event, buffer, `stormledger-results-${run.id.slice(0, 8)}.xlsx`)
 })

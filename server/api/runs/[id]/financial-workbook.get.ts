@@ -3,7 +3,7 @@
 import { financialQuerySchema } from '~~/shared/schemas/insurance'
 import { financialView, loadFinancialInputs } from '~~/server/insurance/financial-view'
 import { writeFinancialWorkbook } from '~~/server/insurance/workbook'
-import { setDownloadHeaders } from '~~/server/utils/downloads'
+import { sendWorkbook } from '~~/server/utils/sheets'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
@@ -12,6 +12,5 @@ export default defineEventHandler(async (event) => {
   const view = financialView(await loadFinancialInputs(member.organisationId, id, query.termsVersionId), { ...query, whatIfOccurrenceDeductible: undefined, whatIfAggregateDeductible: undefined })
   const body = await writeFinancialWorkbook(view, { currency: member.currency, exportedBy: `${member.user.name} <${member.user.email}>`, exportedAt: new Date() })
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'financial_results', entityId: id, after: { termsVersionId: view.terms?.versionId ?? null, pricing: view.pricing } }, { event })
-  setDownloadHeaders(event, `stormledger-financial-${id.slice(0, 8)}.xlsx`)
-  return body
+  return sendWorkbook(event, body, `stormledger-financial-${id.slice(0, 8)}.xlsx`)
 })

@@ -2,7 +2,8 @@
 import { useDb } from '~~/server/db'
 import { planDetail } from '~~/server/capital/plan-detail'
 import { writePlanWorkbook } from '~~/server/capital/workbook'
-import { setDownloadHeaders, fileDate } from '~~/server/utils/downloads'
+import { fileDate } from '~~/server/utils/downloads'
+import { sendWorkbook } from '~~/server/utils/sheets'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.exporters })
@@ -11,6 +12,5 @@ export default defineEventHandler(async (event) => {
   if (!detail) notFound('Plan')
   const body = await writePlanWorkbook(detail, member.currency)
   await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'export', entity: 'capital_plan', entityId: id, after: { actions: detail.actions.length } }, { event })
-  setDownloadHeaders(event, `stormledger-capital-plan-${fileDate()}.xlsx`)
-  return body
+  return sendWorkbook(event, body, `stormledger-capital-plan-${fileDate()}.xlsx`)
 })

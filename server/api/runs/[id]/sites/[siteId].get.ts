@@ -1,7 +1,7 @@
 // GET /api/runs/:id/sites/:siteId — one site of a succeeded run: figures, tanks (with property
 // damage and interruption apart, and the neighbours a tank's fire would most likely reach), event
 // bands, and the site as the run saw it (plan, what-if inputs).
-import { exceedanceSeries, findSucceededRun, headline, lossSplit, runSpreadNeighbours, siteDetail } from '~~/server/results/queries'
+import { exceedanceSeries, findSucceededRun, headline, runSpreadNeighbours, siteDetail } from '~~/server/results/queries'
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
@@ -16,19 +16,18 @@ export default defineEventHandler(async (event) => {
     currency: member.currency,
     facts: detail.facts,
     site: detail.site,
-    headline: headline(detail.result, detail.result.yearSummary),
+    headline: headline(detail.result.figures, detail.result.lossSplit, detail.result.yearSummary),
     exceedance: exceedanceSeries(detail.result.yearSummary, detail.facts.name),
     eventBands: detail.result.eventBands,
     radiusM: detail.result.radiusM,
     spread: await runSpreadNeighbours(run, detail.site),
+    // Each figure is the shared result figure (shared/results/figure.ts): simulated-years runs carry
+    // the whole counts behind the rates (Garwood intervals; null in frequency mode), and a figure the
+    // negligible-rate rule stopped says upperBoundOnly.
     tanks: detail.tanks.map(t => ({
       tankId: t.tankId, tag: t.tag,
-      lossSplit: lossSplit(t),
-      // Year mode: the whole simulated counts behind the rates (Garwood intervals); null in frequency mode.
-      direct: { rate: t.directRate, lo: t.directLo, hi: t.directHi, count: t.directCount },
-      sparking: { rate: t.sparkingRate, lo: t.sparkingLo, hi: t.sparkingHi, count: t.sparkingCount, upperBoundOnly: t.upperBoundFigures.includes('sparking') },
-      ignition: { rate: t.ignitionRate, lo: t.ignitionLo, hi: t.ignitionHi, count: t.ignitionCount, upperBoundOnly: t.upperBoundFigures.includes('ignition') },
-      expectedAnnualLoss: { rate: t.expectedAnnualLoss, lo: t.expectedAnnualLossLo, hi: t.expectedAnnualLossHi, upperBoundOnly: t.upperBoundFigures.includes('expectedAnnualLoss') },
+      lossSplit: t.lossSplit,
+      ...t.figures,
       samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
     })),
   }

@@ -2,6 +2,9 @@
 // value (map, sites × metrics heatmap, site table).
 import { findSucceededRun, siteResults } from '~~/server/results/queries'
 import { cachedJson } from '~~/server/results/cache'
+import type { ResultFigure } from '~~/shared/results/figure'
+
+const interval = (f: ResultFigure): [number, number] => [f.lo, f.hi]
 
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event)
@@ -19,12 +22,12 @@ export default defineEventHandler(async (event) => {
         latitude: s.facts.latitudeDeg, longitude: s.facts.longitudeDeg, insuredValue: s.facts.insuredValue, tanks: s.tanks,
         radiusM: s.radiusM, lambdaPerYear: s.lambdaPerYear,
         values: {
-          ignitionPerYear: s.ignitionRate, sparkingPerYear: s.sparkingRate, directPerYear: s.directRate,
-          averageAnnualLoss: s.expectedAnnualLoss, lossAt100Years: s.lossAt100,
+          ignitionPerYear: s.figures.ignition.rate, sparkingPerYear: s.figures.sparking.rate, directPerYear: s.figures.direct.rate,
+          averageAnnualLoss: s.figures.expectedAnnualLoss.rate, lossAt100Years: s.lossAt100,
         },
         intervals: {
-          ignitionPerYear: [s.ignitionLo, s.ignitionHi], sparkingPerYear: [s.sparkingLo, s.sparkingHi],
-          directPerYear: [s.directLo, s.directHi], averageAnnualLoss: [s.expectedAnnualLossLo, s.expectedAnnualLossHi],
+          ignitionPerYear: interval(s.figures.ignition), sparkingPerYear: interval(s.figures.sparking),
+          directPerYear: interval(s.figures.direct), averageAnnualLoss: interval(s.figures.expectedAnnualLoss),
         },
       })),
     }
