@@ -30,6 +30,8 @@ export default defineNuxtConfig({
   typescript: { strict: true },
   nitro: {
     experimental: { tasks: false },
+    // Public files (the basemap GeoJSON above all) are served pre-compressed (gzip, brotli).
+    compressPublicAssets: true,
     // Node ≥ 20.19 resolves these packages (pulled in by ExcelJS) through their "module-sync" export,
     // which Nitro's file tracing does not follow; ship those files explicitly.
     externals: {
