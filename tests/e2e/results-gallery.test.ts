@@ -92,6 +92,10 @@ describe('chart gallery with sample figures', () => {
     const tankText = await hoverReadout(page, tank, 0.55, 0.4)
     expect(tankText).toMatch(/kA/)
     expect(tankText).toMatch(/ m from the tank/)
+    // The probability carries its unit; the sample's probabilities span decades, so the legend says log scale (shared/results/heatmap-scale.ts).
+    expect(tankText).toMatch(/(sparking probability per flash [\d.,×⁻⁰-⁹ ]+ %|strikes the tank directly)/)
+    expect(await page.getByTestId('tank-heatmap-scale').textContent()).toContain('log scale')
+    expect(await page.getByTestId('event-bands-scale').textContent()).toMatch(/(log|linear) scale/)
   })
 
   it('offers each chart\'s data as CSV', async () => {
