@@ -47,7 +47,7 @@ describe('calibration in a real browser', () => {
     await page.getByTestId('impulse-upload').setInputFiles(resolve(examples, 'impulse-series.csv'))
     // The example is the hand-worked series: up-and-down U50 = 92.8 kV (IEC 60060-1 mean of the valid levels).
     await expect.poll(() => page.getByTestId('up-and-down-result').innerText()).toContain('92.8 kV')
-    expect(await page.getByTestId('likelihood-result').innerText()).toMatch(/σ \(log\)/)
+    expect(await page.getByTestId('likelihood-result').innerText()).toMatch(/log-normal σ \(dimensionless\)/)
     expect(await inked(page, 'impulse-chart')).toBeGreaterThan(1000)
     await page.getByTestId('impulse-title').fill('Float switch, example series')
     await page.getByTestId('impulse-configuration').fill('float 20 mm from wall, 1.2/50 µs, negative')
