@@ -73,7 +73,7 @@ describe.each(sizes)('on a $name ($width × $height)', ({ name, width, height })
     const { page } = g
     await page.goto(`${inject('baseUrl')}/overview?run=${runId}`, { waitUntil: 'networkidle' })
     const rail = page.getByRole('navigation', { name: 'Sections' })
-    const button = page.getByRole('button', { name: 'Menu' })
+    const button = page.getByRole('button', { name: 'Menu', exact: true })
     if (name !== 'phone') {
       expect(await rail.isVisible()).toBe(true)
       expect(await button.isVisible()).toBe(false)
