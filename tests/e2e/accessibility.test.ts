@@ -76,7 +76,8 @@ beforeAll(async () => {
   const sets = await api('/api/assumption-sets') as { id: string, versions: { id: string }[] }[]
   ids.assumptions = sets[0]!.id
   ids.version = sets[0]!.versions[0]!.id
-  ids.terms = ((await api('/api/policy-terms') as { id: string }[])[0] ?? { id: '00000000-0000-4000-8000-000000000000' }).id
+  const terms = (await api('/api/policy-terms') as { id: string }[])[0]
+  ids.terms = terms?.id ?? (await api('/api/policy-terms', { method: 'POST', body: { portfolioId: ids.portfolio, name: 'Accessibility check terms', description: '' } }) as { set: { id: string } }).set.id
   // A calibration of this organisation: the example impulse series (docs/examples/impulse-series.csv).
   const series = readFileSync(resolve(import.meta.dirname, '../../docs/examples/impulse-series.csv'), 'utf8').trim().split('\n').slice(1)
     .map(l => l.split(',')).map(([level, spark]) => ({ levelKv: Number(level), spark: spark!.trim() === 'yes' }))
