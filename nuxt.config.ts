@@ -38,8 +38,9 @@ export default defineNuxtConfig({
       traceInclude: ['async-function', 'async-generator-function', 'generator-function']
         .map(p => `node_modules/${p}/require.mjs`),
     },
-    // docs/ is bundled into the server so the methodology page renders from the one Markdown file.
-    serverAssets: [{ baseName: 'docs', dir: fileURLToPath(new URL('./docs', import.meta.url)) }],
+    // docs/ is bundled into the server so the methodology page renders from the one Markdown file
+    // (the README's screenshots stay out of the bundle).
+    serverAssets: [{ baseName: 'docs', dir: fileURLToPath(new URL('./docs', import.meta.url)), ignore: ['screenshots/**'] }],
   },
   vite: {
     optimizeDeps: { include: ['echarts/core', 'echarts/charts', 'echarts/components', 'echarts/renderers', 'vue-echarts', 'zod', 'seedrandom', 'jstat'] },
