@@ -30,14 +30,17 @@ export default defineNuxtConfig({
   typescript: { strict: true },
   nitro: {
     experimental: { tasks: false },
+    // Public files (the basemap GeoJSON above all) are served pre-compressed (gzip, brotli).
+    compressPublicAssets: true,
     // Node ≥ 20.19 resolves these packages (pulled in by ExcelJS) through their "module-sync" export,
     // which Nitro's file tracing does not follow; ship those files explicitly.
     externals: {
       traceInclude: ['async-function', 'async-generator-function', 'generator-function']
         .map(p => `node_modules/${p}/require.mjs`),
     },
-    // docs/ is bundled into the server so the methodology page renders from the one Markdown file.
-    serverAssets: [{ baseName: 'docs', dir: fileURLToPath(new URL('./docs', import.meta.url)) }],
+    // docs/ is bundled into the server so the methodology page renders from the one Markdown file
+    // (the README's screenshots stay out of the bundle).
+    serverAssets: [{ baseName: 'docs', dir: fileURLToPath(new URL('./docs', import.meta.url)), ignore: ['screenshots/**'] }],
   },
   vite: {
     optimizeDeps: { include: ['echarts/core', 'echarts/charts', 'echarts/components', 'echarts/renderers', 'vue-echarts', 'zod', 'seedrandom', 'jstat'] },

@@ -1,27 +1,24 @@
-// The basemap ships with the app: Natural Earth countries at 1:50m from the world-atlas package,
-// TopoJSON converted to GeoJSON with topojson-client in the browser and registered with ECharts.
-// Both are loaded by dynamic import, so they sit in a chunk of their own, fetched from this server
-// only when a map is first drawn (never in the main client chunk, never from the internet).
-import type { GeometryCollection, Topology } from 'topojson-specification'
+// The basemap ships with the app: public/basemap/context.json, a small GeoJSON written by
+// scripts/make-basemap.ts from Natural Earth 1:50m countries and coastlines and the U.S. Census
+// Bureau's state boundaries (both public domain; sources in public/basemap/SOURCES.md). It is
+// fetched from this server only when a map is first drawn (never in the main client chunk, never
+// from the internet) and registered with ECharts.
 
-export const BASEMAP_NAME = 'stormledger-countries'
+export const BASEMAP_NAME = 'stormledger-context'
+export const BASEMAP_URL = '/basemap/context.json'
 
-type CountriesTopology = Topology<{ countries: GeometryCollection<{ name: string }> }>
+interface Collection { type: 'FeatureCollection', features: { properties?: { name?: string } }[] }
 
 let registration: Promise<void> | null = null
 
 /** Registers the basemap with ECharts once; later calls share the same promise. */
 export function loadBasemap(): Promise<void> {
   registration ??= (async () => {
-    const [{ feature }, atlas, { registerMap }] = await Promise.all([
-      import('topojson-client'),
-      import('world-atlas/countries-50m.json'),
-      import('echarts/core'),
-    ])
-    const topology = (('default' in atlas ? atlas.default : atlas) as unknown) as CountriesTopology
-    if (topology?.type !== 'Topology' || !topology.objects?.countries) throw new Error('the basemap file is not a TopoJSON topology with countries')
-    const countries = feature(topology, topology.objects.countries)
-    registerMap(BASEMAP_NAME, countries as unknown as Parameters<typeof registerMap>[1])
+    const [response, { registerMap }] = await Promise.all([fetch(BASEMAP_URL), import('echarts/core')])
+    if (!response.ok) throw new Error(`the server answered ${response.status}`)
+    const geo = await response.json() as Collection
+    if (geo?.type !== 'FeatureCollection' || !Array.isArray(geo.features)) throw new Error('the basemap file is not a GeoJSON feature collection')
+    registerMap(BASEMAP_NAME, geo as unknown as Parameters<typeof registerMap>[1])
   })()
   registration.catch(() => { registration = null })
   return registration

@@ -68,6 +68,7 @@ export async function runLightningCalibration(member: Member, event: H3Event, in
     periodYears,
     periodSource: input.periodYears === null ? 'span of the records' : 'stated',
     leftOutForLocationError,
+    recordsExtent: { latitudeRange: summary.latitudeRange, longitudeRange: summary.longitudeRange },
     sites: siteRows,
     pooled: {
       currents: pooledCurrents.length,

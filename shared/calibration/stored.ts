@@ -6,13 +6,15 @@ import type { ImpulseApplication } from './impulse'
 import type { LognormalFit } from './lognormal-fit'
 
 export interface LightningSiteResult {
-  siteId: string, name: string, externalId: string, previousFlashDensity: number | null
+  siteId: string, name: string, externalId: string, latDeg: number, lonDeg: number, previousFlashDensity: number | null
   flashDensity: { ng: number, lo: number, hi: number, flashCount: number, areaKm2: number }
   negativeFirstStrokes: number, fittedCurrents: number, fit: LognormalFit | null, fitProblem: string | null
 }
 
 export interface LightningCalibrationResults {
   periodYears: number, periodSource: string, leftOutForLocationError: number, sites: LightningSiteResult[]
+  /** The records' latitude and longitude ranges (calibrations made before it was kept have none). */
+  recordsExtent?: { latitudeRange: [number, number] | null, longitudeRange: [number, number] | null }
   pooled: { currents: number, fit: LognormalFit | null, fitProblem: string | null, empirical: [number, number][], curves: ExceedanceCurve[] }
 }
 

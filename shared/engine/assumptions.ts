@@ -112,7 +112,7 @@ const CONTENTS_LABELS: Record<SparkContents, string> = {
 function thresholdMeta(): AssumptionParameterMeta[] {
   return (Object.keys(CLASS_LABELS) as ComponentClass[]).flatMap((cls) => [
     { key: `thresholds.${cls}.u50Kv`, label: `50 % sparking level, ${CLASS_LABELS[cls]}`, unit: 'kV', default: defaultAssumptions.thresholds[cls].u50Kv, source: `${ILLUSTRATIVE} (Methodology §4); impulse-test calibration replaces it`, kind: 'number' as const },
-    { key: `thresholds.${cls}.sigma`, label: `Sparking scatter σ (log), ${CLASS_LABELS[cls]}`, unit: '', default: defaultAssumptions.thresholds[cls].sigma, source: `${ILLUSTRATIVE} (Methodology §4)`, kind: 'number' as const },
+    { key: `thresholds.${cls}.sigma`, label: `Sparking scatter, log-normal σ, ${CLASS_LABELS[cls]}`, unit: 'dimensionless', default: defaultAssumptions.thresholds[cls].sigma, source: `${ILLUSTRATIVE} (Methodology §4)`, kind: 'number' as const },
   ])
 }
 
@@ -299,4 +299,22 @@ export function parseAssumptions(partial: unknown = {}): AssumptionSet {
   const result = assumptionSetSchema.safeParse(merged)
   if (!result.success) throw EngineInputError.fromZod('Invalid assumption set', result.error)
   return result.data
+}
+
+/** Readable words for the choices of the assumption set (screens and exports; the stored value is the key). */
+export const ASSUMPTION_CHOICE_LABELS: Record<string, string> = {
+  egm: 'electrogeometric model (rolling sphere)',
+  collection_area: 'collection area (IEC 62305-2, 3H)',
+  power_law: 'power law (IEEE Std 1410)',
+  lognormal: 'log-normal (CIGRE)',
+  empirical: 'empirical, from records',
+  exponential: 'exponential with distance',
+  off: 'off (no spread)',
+  anderson: 'Anderson, 0.04·Td^1.25 (IEEE Std 1410)',
+  iec: 'IEC 62305-2, 0.1·Td',
+}
+
+/** The readable label of a choice value, or the value with spaces for underscores. */
+export function choiceLabel(value: string): string {
+  return ASSUMPTION_CHOICE_LABELS[value] ?? value.replace(/_/g, ' ')
 }

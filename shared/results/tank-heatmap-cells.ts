@@ -2,9 +2,10 @@
 // which carry a sparking probability. One pure function, so a test can hold every cell against the
 // engine's grid (issue: a column of direct-strike cells drawn as "never sparks").
 import type { TankSparkingGrid } from './types'
+import { chooseScale, type ColourScale } from './heatmap-scale'
 
-/** [distance index, current index, value] as ECharts' heatmap takes them. */
-export type HeatmapCell = [number, number, number]
+/** [distance index, current index, value, colour position] as ECharts' heatmap takes them. */
+export type HeatmapCell = [number, number, number, number]
 
 /** True when flashes of current i landing at distance j strike the tank itself. */
 export function isDirectCell(g: TankSparkingGrid, i: number, j: number): boolean {
@@ -13,12 +14,18 @@ export function isDirectCell(g: TankSparkingGrid, i: number, j: number): boolean
   return (g.distancesM[j] ?? Infinity) <= (g.directStrikeDistanceM[i] ?? 0) && (g.directStrikeDistanceM[i] ?? 0) > 0
 }
 
-export function tankHeatmapCells(g: TankSparkingGrid): { sparking: HeatmapCell[], direct: HeatmapCell[] } {
-  const sparking: HeatmapCell[] = []
+/**
+ * The sparking cells carry the engine's probability and its place on the colour scale (log when the
+ * probabilities outside the direct zone span two decades or more); direct-strike cells are hatched.
+ */
+export function tankHeatmapCells(g: TankSparkingGrid): { sparking: HeatmapCell[], direct: HeatmapCell[], scale: ColourScale } {
+  const raw: [number, number, number][] = []
   const direct: HeatmapCell[] = []
   g.currentsKa.forEach((_, i) => g.distancesM.forEach((_d, j) => {
-    if (isDirectCell(g, i, j)) direct.push([j, i, 1])
-    else sparking.push([j, i, g.probability[i]![j]!])
+    if (isDirectCell(g, i, j)) direct.push([j, i, 1, 1])
+    else raw.push([j, i, g.probability[i]![j]!])
   }))
-  return { sparking, direct }
+  const scale = chooseScale(raw.map(c => c[2]))
+  const sparking = raw.map(([j, i, v]) => [j, i, v, scale.t(v) ?? 0] as HeatmapCell)
+  return { sparking, direct, scale }
 }

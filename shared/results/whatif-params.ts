@@ -56,7 +56,7 @@ export const paramSpecs: readonly ParamSpec[] = [
   { key: 'tankHeightM', label: 'Tank height', unit: 'm', min: 1, max: 20, step: 0.1, query: 'height', help: 'Also the height of the internal parts.' },
   { key: 'tankDiameterM', label: 'Tank diameter', unit: 'm', min: 1, max: 20, step: 0.1, query: 'diameter', help: '' },
   { key: 'u50Kv', label: '50 % sparking level U50', unit: 'kV', min: 10, max: 400, step: 1, query: 'u50', help: 'Of the most easily sparking internal part.' },
-  { key: 'sigma', label: 'Sparking scatter σ', unit: 'log', min: 0, max: 1, step: 0.01, query: 'sigma', help: '0 is a sharp threshold.' },
+  { key: 'sigma', label: 'Sparking scatter, log-normal σ', unit: 'dimensionless', min: 0, max: 1, step: 0.01, query: 'sigma', help: '0 is a sharp threshold.' },
   { key: 'shieldKa', label: 'Induced-sparking shield rating', unit: 'kA', min: 0, max: 200, step: 1, query: 'shield', help: '0 is no shield; no sparking for currents up to the rating.' },
   { key: 'mastHeightM', label: 'Nearby mast height', unit: 'm', min: 0, max: 60, step: 0.5, query: 'mast', help: '0 is no mast.' },
   { key: 'mastDistanceM', label: 'Distance to the mast', unit: 'm', min: 3, max: 200, step: 1, query: 'mastdist', help: 'From the tank’s axis.' },

@@ -47,7 +47,7 @@ describe('calibration in a real browser', () => {
     await page.getByTestId('impulse-upload').setInputFiles(resolve(examples, 'impulse-series.csv'))
     // The example is the hand-worked series: up-and-down U50 = 92.8 kV (IEC 60060-1 mean of the valid levels).
     await expect.poll(() => page.getByTestId('up-and-down-result').innerText()).toContain('92.8 kV')
-    expect(await page.getByTestId('likelihood-result').innerText()).toMatch(/σ \(log\)/)
+    expect(await page.getByTestId('likelihood-result').innerText()).toMatch(/log-normal σ \(dimensionless\)/)
     expect(await inked(page, 'impulse-chart')).toBeGreaterThan(1000)
     await page.getByTestId('impulse-title').fill('Float switch, example series')
     await page.getByTestId('impulse-configuration').fill('float 20 mm from wall, 1.2/50 µs, negative')
@@ -113,6 +113,9 @@ describe('calibration in a real browser', () => {
     await page.getByTestId('lightning-submit').click()
     await page.waitForURL(/\/calibration\/[0-9a-f-]{36}$/)
     expect(await page.getByTestId('site-density-table').innerText()).toContain('Bayou tank farm')
+    // The example records span 29.63–29.89° N and 95.48–95.22° W (docs/examples/lightning-records.csv); the site (29.76° N, 95.37° W)
+    // lies 0.11° of longitude (10.9 km) from the western edge, so a 20 km circle reaches about 9 km beyond them (hand-worked).
+    expect(await page.getByTestId('calibration-warnings').innerText()).toMatch(/20 km circle around Bayou tank farm reaches [\d.]+ km beyond the area the records span/)
     expect(await inked(page, 'current-fit-chart')).toBeGreaterThan(1000)
     await saveScreenshot(page, 'calibration-lightning')
     expect(outsideRequests).toEqual([])

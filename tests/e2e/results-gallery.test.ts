@@ -9,11 +9,13 @@ import { sampleResults } from '../../shared/results/sample'
 let browser: Browser
 let g: GuardedPage
 const jsBodies = new Map<string, string>()
+const fetched: string[] = []
 
 beforeAll(async () => {
   browser = await launchBrowser()
   g = await openGuardedPage(browser)
   g.page.on('response', async (r) => {
+    fetched.push(r.url())
     if (r.url().endsWith('.js')) jsBodies.set(r.url(), await r.text().catch(() => ''))
   })
   await g.page.goto(`${inject('baseUrl')}/preview/results`, { waitUntil: 'networkidle' })
@@ -90,6 +92,10 @@ describe('chart gallery with sample figures', () => {
     const tankText = await hoverReadout(page, tank, 0.55, 0.4)
     expect(tankText).toMatch(/kA/)
     expect(tankText).toMatch(/ m from the tank/)
+    // The probability carries its unit; the sample's probabilities span decades, so the legend says log scale (shared/results/heatmap-scale.ts).
+    expect(tankText).toMatch(/(sparking probability per flash [\d.,×⁻⁰-⁹ ]+ %|strikes the tank directly)/)
+    expect(await page.getByTestId('tank-heatmap-scale').textContent()).toContain('log scale')
+    expect(await page.getByTestId('event-bands-scale').textContent()).toMatch(/(log|linear) scale/)
   })
 
   it('offers each chart\'s data as CSV', async () => {
@@ -101,13 +107,13 @@ describe('chart gallery with sample figures', () => {
     expect(csv.split('\r\n').length).toBeGreaterThan(10)
   })
 
-  it('loads the basemap from this server in a chunk of its own, and a site can be chosen from the map', async () => {
+  it('loads the basemap from this server as a file of its own, and a site can be chosen from the map', async () => {
     const { page } = g
-    // The basemap chunk is the one script carrying Natural Earth's country names.
-    const basemapChunks = [...jsBodies].filter(([, body]) => body.includes('Madagascar') && body.includes('arcs')).map(([url]) => url)
-    expect(basemapChunks.length).toBe(1)
-    expect(new URL(basemapChunks[0]!).hostname).toBe('localhost')
-    // The entry script named in the page's HTML is not the basemap chunk and holds no map data.
+    // The basemap is the GeoJSON shipped in public/basemap, fetched from this server.
+    const basemap = fetched.filter(u => new URL(u).pathname === '/basemap/context.json')
+    expect(basemap.length).toBe(1)
+    expect(new URL(basemap[0]!).hostname).toBe('localhost')
+    // The entry script named in the page's HTML holds no map data (Natural Earth's country names).
     const html = await (await fetch(`${inject('baseUrl')}/`)).text()
     const entries = [...html.matchAll(/<script[^>]+type="module"[^>]+src="([^"]+)"/g)].map(m => m[1]!)
     expect(entries.length).toBeGreaterThan(0)
@@ -115,6 +121,7 @@ describe('chart gallery with sample figures', () => {
       const body = await (await fetch(new URL(src, inject('baseUrl')))).text()
       expect(body).not.toContain('Madagascar')
     }
+    expect([...jsBodies.values()].some(body => body.includes('Madagascar'))).toBe(false)
     // A click on a site's symbol emits its id. Symbols are the only things outlined in a near-black
     // neutral (the theme's ink 900, shared/theme.ts; the ramp's dark end is blue), so the first such
     // pixel lies on a symbol's edge.

@@ -4,6 +4,7 @@ import { defaultAssumptions } from '../../shared/engine/assumptions'
 import { createOrganisation, memberClient, type Client } from '../support/accounts'
 import { testPool } from '../support/db'
 import { normal, poisson, rng, uniformInDisc } from '../unit/calibration/synthetic'
+import { coverageWarning } from '../../shared/calibration/coverage'
 
 const pool = testPool()
 afterAll(() => pool.end())
@@ -62,6 +63,7 @@ beforeAll(async () => {
 describe('lightning-location records', () => {
   let fileId: string
   let calibrationId: string
+  let fileSummary: { latitudeRange: [number, number] | null, longitudeRange: [number, number] | null }
   const records = syntheticRecords()
 
   it('refuses bad files with clear messages and stores nothing', async () => {
@@ -94,6 +96,7 @@ describe('lightning-location records', () => {
     const file = await res.json()
     expect(res.status, file.statusMessage).toBe(201)
     fileId = file.id
+    fileSummary = file.summary
     const dataLines = records.trim().split('\n').slice(1)
     expect(file.rowCount).toBe(dataLines.length)
     expect(file.summary.cloudRecords + file.summary.groundRecords).toBe(dataLines.length)
@@ -118,6 +121,11 @@ describe('lightning-location records', () => {
     expect(near.flashDensity.hi).toBeGreaterThan(TRUE_NG)
     const far = calibration.results.sites.find((s: { siteId: string }) => s.siteId === farSiteId)
     expect(far.flashDensity.flashCount).toBe(0)
+    // The results keep the records' extent (the file's summary), from which the page warns that the far site is not covered.
+    expect(calibration.results.recordsExtent).toEqual({ latitudeRange: fileSummary.latitudeRange, longitudeRange: fileSummary.longitudeRange })
+    expect(coverageWarning(far, 0, 10, calibration.results.recordsExtent)).toMatch(/do not cover|No record lies within 10 km/)
+    // The records fill a 12 km disc around the near site (syntheticRecords), so its 10 km circle lies inside their extent.
+    expect(coverageWarning(near, near.flashDensity.flashCount, 10, calibration.results.recordsExtent)).toBeNull()
     const fit = calibration.results.pooled.fit
     expect(fit.medianInterval.lo).toBeLessThan(31.1)
     expect(fit.medianInterval.hi).toBeGreaterThan(31.1)
