@@ -26,6 +26,8 @@ export const ROLES = {
   planners: ['admin', 'asset_manager'],
   exporters: ['admin', 'analyst', 'underwriter', 'asset_manager'],
   underwriting: ['admin', 'underwriter'],
+  /** Everyone but viewers: save what-if options. */
+  contributors: ['admin', 'analyst', 'underwriter', 'asset_manager'],
 } as const satisfies Record<string, readonly Role[]>
 
 /**
