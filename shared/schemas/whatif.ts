@@ -1,7 +1,7 @@
 // Saved what-if options (server/api/whatif-options): what the page sends and what sending one to
 // the capital plan needs. The parameter ranges are the what-if's own (shared/results/whatif-params.ts).
 import { z } from 'zod'
-import { currentLawLabels, paramSpecs, type WhatIfCurrentLaw } from '../results/whatif-params'
+import { currentLawLabels, paramSpecs, type WhatIfCurrentLaw, type WhatIfParams } from '../results/whatif-params'
 
 /** Per year. */
 export interface WhatIfFigures { sparkingPerYear: number, directPerYear: number, ignitionPerYear: number }
@@ -12,8 +12,9 @@ const figuresSchema = z.object({ sparkingPerYear: rate, directPerYear: rate, ign
 const paramsSchema = z.object(Object.fromEntries(paramSpecs.map(s => [s.key, z.number().min(s.min).max(s.max)])) as Record<(typeof paramSpecs)[number]['key'], z.ZodNumber>)
   .extend({ currentLaw: z.enum(Object.keys(currentLawLabels) as [WhatIfCurrentLaw, ...WhatIfCurrentLaw[]]) })
 
+const paramKeys: [keyof WhatIfParams, ...(keyof WhatIfParams)[]] = ['currentLaw', ...paramSpecs.map(s => s.key)]
 const changeSchema = z.object({
-  key: z.string().max(40),
+  key: z.enum(paramKeys),
   label: z.string().max(120),
   from: z.union([z.number(), z.string().max(120)]),
   to: z.union([z.number(), z.string().max(120)]),
