@@ -68,7 +68,7 @@ describe('inviting an analyst, end to end', () => {
     // The overview shows the organisation's dashboard, or "No run yet" before its first run finishes.
     await page.getByTestId('overview-context').waitFor()
     const sections = await page.getByTestId('section-nav').locator('a').allInnerTexts()
-    expect(sections.map(s => s.trim())).toEqual(['Overview', 'Portfolios', 'Sites', 'Runs', 'Assumptions', 'Capital plan', 'Calibration', 'Storms'])
+    expect(sections.map(s => s.trim())).toEqual(['Overview', 'Portfolios', 'Sites', 'Runs', 'Assumptions', 'Insurance', 'Capital plan', 'Calibration', 'Storms'])
     expect(await page.getByTestId('current-role').innerText()).toBe('Analyst')
     expect(await page.getByTestId('overview-context').innerText()).toContain('Cobalt Ridge Assurance')
     await saveScreenshot(page, 'analyst-overview')
