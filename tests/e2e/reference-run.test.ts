@@ -60,4 +60,26 @@ describe('reference run', () => {
     expect(consoleErrors).toEqual([])
     await context.close()
   })
+
+  it('an analyst renames a run on its page; an empty name is refused beside the field', async () => {
+    const base = inject('baseUrl')
+    const { page, context, consoleErrors } = await openGuardedPage(browser)
+    await signInPage(page, base, ANALYST, DEMO_PASSWORD)
+    const runId = await demoRun(page)
+    await page.goto(`${base}/runs/${runId}`, { waitUntil: 'networkidle' })
+    const before = await page.getByTestId('run-name').innerText()
+    await page.getByTestId('run-rename').click()
+    await page.getByTestId('run-name-input').fill('   ')
+    await page.getByTestId('run-name-save').click()
+    // The message of shared/schemas/runs.ts (renameRunSchema), from the server's data.fields.
+    await page.locator('#run-name-error').getByText('Name the run.').waitFor()
+    await page.getByTestId('run-name-input').fill('Renewal basis, browser test')
+    await page.getByTestId('run-name-save').click()
+    await expect.poll(() => page.getByTestId('run-name').innerText()).toBe('Renewal basis, browser test')
+    // Back to the demo's name for the other browser tests.
+    await page.evaluate(async ([id, name]) => { await fetch(`/api/runs/${id}`, { method: 'PATCH', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ name }) }) }, [runId, before] as const)
+    consoleErrors.splice(0, consoleErrors.length, ...consoleErrors.filter(e => !e.includes('400')))
+    expect(consoleErrors).toEqual([])
+    await context.close()
+  })
 })
