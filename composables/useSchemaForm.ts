@@ -34,7 +34,12 @@ export function useSchemaForm<T extends z.ZodType>(schema: T) {
     }
   }
 
-  return { errors, formError, saving, validate, submit }
+  /** The message at a dotted path, or the first one below it (a list's `series.3.levelKv` for `series`). */
+  function errorAt(path: string): string | undefined {
+    return errors.value[path] ?? Object.entries(errors.value).find(([key]) => key.startsWith(`${path}.`))?.[1]
+  }
+
+  return { errors, formError, saving, validate, submit, errorAt }
 }
 
 /** Whether the signed-in role may change the inventory (the server checks again). */

@@ -16,8 +16,8 @@ export const navSections: NavSection[] = [
   { label: 'Sites', to: '/sites' },
   { label: 'Runs', to: '/runs' },
   { label: 'Assumptions', to: '/assumptions' },
-  // Terms editing is the underwriters' workspace; every role reads a run's financial view from the run.
-  { label: 'Insurance', to: '/insurance', roles: ['admin', 'underwriter'] },
+  // Every member reads terms and each run's financial view (README "Insurance terms"); underwriters and admins edit terms.
+  { label: 'Insurance', to: '/insurance' },
   { label: 'Capital plan', to: '/capital-plan', roles: ['admin', 'analyst', 'asset_manager', 'underwriter', 'viewer'] },
   { label: 'Calibration', to: '/calibration', roles: [...EDITOR_ROLES] },
   // After the storm: reports for every role but viewers (the issue's readers: asset managers, underwriters, analysts, admins).

@@ -19,6 +19,8 @@ export const PERMISSIONS = {
   calibrate: EDITORS,
   /** Capital plan: costs, candidate actions, saved plans (ROLES.planners). */
   plan: ['admin', 'asset_manager'],
+  /** Tank what-if: keep options on the server for the organisation (ROLES.contributors). */
+  saveWhatIf: ['admin', 'analyst', 'underwriter', 'asset_manager'],
   /** Capital plan: evaluating actions runs simulations, so it is an analyst's task (ROLES.editors). */
   evaluateActions: EDITORS,
   /** Insurance terms and referrals: write them, give them to someone, set due dates (ROLES.underwriting). */

@@ -1,5 +1,5 @@
-// Mitigation options saved from the tank what-if panel: kept for this browser session until the
-// capital-plan work stores them with the tank.
+// Mitigation options saved from the tank what-if by someone signed out (or a viewer): kept for this
+// browser tab only. Signed in, options are kept on the server (server/whatif/options.ts).
 import { defineStore } from 'pinia'
 import type { ParamChange, WhatIfParams } from '~~/shared/results/whatif-params'
 

@@ -160,6 +160,9 @@ export async function acceptInvitation(event: H3Event, token: string, input: { n
       if (!input.password) fieldProblem('password', 'Choose a password.')
       assertPasswordAllowed(input.password, invitation.email)
       ;[user] = await tx.insert(users).values({ email: invitation.email, name: input.name, passwordHash: await hashPassword(input.password), lastOrganisationId: invitation.organisationId }).returning()
+      // The new person has just chosen their password: they are signed in (unless somebody else is
+      // signed in in this browser, whose session is left as it is).
+      signInNow = signedIn === null
     } else {
       if (signedIn && signedIn !== user.id) throw createError({ statusCode: 403, statusMessage: 'This invitation is for another address. Sign out, then sign in as the invited address to accept it.' })
       if (!signedIn) {

@@ -55,6 +55,7 @@ function present(row: { run: RunRow, requestedByName: string | null, setName: st
   return {
     id: run.id, state: run.state, mode: run.mode, seed: run.seed,
     portfolioId: run.portfolioId, portfolioName: run.portfolioName,
+    name: run.name || run.portfolioName, isReference: run.isReference,
     assumptions: { versionId: run.assumptionVersionId, setName: row.setName, version: row.version },
     targetRse: run.targetRse, years: run.years, maxSamplesPerTank: run.maxSamplesPerTank, chunkSize: run.chunkSize,
     negligibleRatePerYear: run.negligibleRatePerYear,

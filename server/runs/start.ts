@@ -5,7 +5,7 @@ import { and, eq } from 'drizzle-orm'
 import { ENGINE_VERSION } from '../../shared/engine'
 import { parseAssumptions } from '../../shared/engine/assumptions'
 import type { z } from 'zod'
-import type { startRunSchema } from '../../shared/schemas/runs'
+import { defaultRunName, type startRunSchema } from '../../shared/schemas/runs'
 import { useDb } from '../db'
 import { assumptionSets, assumptionSetVersions, runChunks, runs, runSiteSnapshots } from '../db/schema'
 import { withClientTransaction } from '../db/transaction'
@@ -44,6 +44,7 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
   return withClientTransaction(async ({ tx, bossDb }) => {
     const [run] = await tx.insert(runs).values({
       organisationId: by.organisationId, portfolioId: portfolio.id, portfolioName: portfolio.name,
+      name: input.name?.trim() || defaultRunName(portfolio.name, new Date()),
       assumptionVersionId: version.v.id, mode: input.mode, seed,
       targetRse: input.targetRse, maxSamplesPerTank: input.maxSamplesPerTank, negligibleRatePerYear: input.negligibleRatePerYear,
       years: input.years, chunkSize: input.chunkSize,

@@ -25,7 +25,7 @@ export const ROLES = {
   admins: ['admin'],
   planners: ['admin', 'asset_manager'],
   exporters: ['admin', 'analyst', 'underwriter', 'asset_manager'],
-  /** Every member but viewers: they reply in referral threads (and act on referrals given to them). */
+  /** Every member but viewers: save what-if options, reply in referral threads (and act on referrals given to them). */
   contributors: ['admin', 'analyst', 'underwriter', 'asset_manager'],
   underwriting: ['admin', 'underwriter'],
 } as const satisfies Record<string, readonly Role[]>

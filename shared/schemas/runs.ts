@@ -2,7 +2,16 @@ import { z } from 'zod'
 
 export const RUN_MODES = ['frequency', 'year'] as const
 
+/** A run's name when none is given: the portfolio and the UTC day it started ("Dunmere fleet, 2026-03-14"). */
+export function defaultRunName(portfolioName: string, at: Date): string {
+  return `${portfolioName}, ${at.toISOString().slice(0, 10)}`
+}
+
+const runName = z.string().trim().min(1, 'Name the run.').max(120, 'At most 120 characters.')
+
 export const startRunSchema = z.object({
+  /** Empty: the portfolio's name and the date (defaultRunName). */
+  name: z.string().trim().max(120, 'At most 120 characters.').optional(),
   portfolioId: z.uuid('Choose a portfolio.'),
   assumptionVersionId: z.uuid('Choose an assumption-set version.'),
   mode: z.enum(RUN_MODES, 'Mode is frequency or year.'),
@@ -22,3 +31,6 @@ export const startRunSchema = z.object({
   chunkSize: z.number().int().min(1, 'A chunk holds at least one site.').max(1000, 'A chunk holds at most 1,000 sites.').default(20),
 })
 export type StartRunInput = z.input<typeof startRunSchema>
+
+/** PATCH /api/runs/:id — rename a run. */
+export const renameRunSchema = z.object({ name: runName })

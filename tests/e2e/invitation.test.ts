@@ -1,5 +1,5 @@
 // In a real browser: an admin invites an analyst → the message appears in the Mailbox → the link is
-// followed → a password is set → sign-in lands on the overview with the analyst's sections.
+// followed → a password is set → the new person is signed in and lands on the overview with the analyst's sections.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser, Page } from 'playwright-core'
 import { launchBrowser, openGuardedPage, saveScreenshot } from '../support/browser'
@@ -63,15 +63,12 @@ describe('inviting an analyst, end to end', () => {
     await saveScreenshot(page, 'accept-invitation')
     await page.getByRole('button', { name: 'Create my account' }).click()
 
-    // Sign-in (e-mail filled in) lands on the overview with the analyst's sections.
-    await page.waitForURL(/\/sign-in\?joined=1/)
-    expect(await page.getByLabel('E-mail').inputValue()).toBe(invitee)
-    await signIn(page, null, 'fibreglass under thunder')
+    // Creating the account signs the new person in: they land on the overview with the analyst's sections.
     await page.waitForURL(`${base}/overview`)
     // The overview shows the organisation's dashboard, or "No run yet" before its first run finishes.
     await page.getByTestId('overview-context').waitFor()
     const sections = await page.getByTestId('section-nav').locator('a').allInnerTexts()
-    expect(sections.map(s => s.trim())).toEqual(['Overview', 'Portfolios', 'Sites', 'Runs', 'Assumptions', 'Capital plan', 'Calibration', 'Storms', 'Referrals'])
+    expect(sections.map(s => s.trim())).toEqual(['Overview', 'Portfolios', 'Sites', 'Runs', 'Assumptions', 'Insurance', 'Capital plan', 'Calibration', 'Storms', 'Referrals'])
     expect(await page.getByTestId('current-role').innerText()).toBe('Analyst')
     expect(await page.getByTestId('overview-context').innerText()).toContain('Cobalt Ridge Assurance')
     await saveScreenshot(page, 'analyst-overview')

@@ -37,8 +37,12 @@ describe('invitations', () => {
     expect((await new Client().post(`/api/invitations/accept/${token}`, { name: 'Ana Lyst' })).status).toBe(400)
     expect((await new Client().post(`/api/invitations/accept/${token}`, { name: 'Ana Lyst', password: 'too short' })).status).toBe(400)
     expect((await new Client().post(`/api/invitations/accept/${token}`, { name: 'Ana Lyst', password: 'new.analyst@example.test' })).status).toBe(400)
-    const accepted = await new Client().post(`/api/invitations/accept/${token}`, { name: 'Ana Lyst', password: 'lightning over the tank farm' })
+    const newcomer = new Client()
+    const accepted = await newcomer.post(`/api/invitations/accept/${token}`, { name: 'Ana Lyst', password: 'lightning over the tank farm' })
     expect(accepted.status).toBe(200)
+    // The new person is signed in by accepting, in the organisation just joined (issue "Screens a practitioner reads at a glance").
+    expect(await accepted.json()).toMatchObject({ signedIn: true, accountCreated: true })
+    expect(await (await newcomer.get('/api/auth/session')).json()).toMatchObject({ role: 'analyst' })
 
     const client = new Client()
     const signIn = await client.signIn('new.analyst@example.test', 'lightning over the tank farm')

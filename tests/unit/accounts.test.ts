@@ -34,6 +34,11 @@ describe('page access (middleware)', () => {
     expect(roleMaySee('/calibration', 'viewer')).toBe(false)
     expect(roleMaySee('/sites/123', 'viewer')).toBe(true)
     expect(sectionsForRole('viewer').map(s => s.label)).not.toContain('Admin')
+    // README "Insurance terms": every member reads terms, so every role sees Insurance.
+    for (const role of ['admin', 'analyst', 'underwriter', 'asset_manager', 'viewer'] as const) {
+      expect(roleMaySee('/insurance/abc', role)).toBe(true)
+      expect(sectionsForRole(role).map(s => s.label)).toContain('Insurance')
+    }
   })
   it('follows only paths inside the app after sign-in', () => {
     expect(safeNext('/sites/1?tab=tanks')).toBe('/sites/1?tab=tanks')

@@ -52,6 +52,10 @@ export const runs = pgTable('runs', {
   /** No foreign key: a run stays readable (from its snapshot) after its portfolio is deleted. */
   portfolioId: uuid('portfolio_id').notNull(),
   portfolioName: text('portfolio_name').notNull(),
+  /** What people call the run; set at start from the portfolio and the UTC date, editable by editors. */
+  name: text('name').notNull().default(''),
+  /** The portfolio's reference run: the one the overview opens (at most one per portfolio, index below). */
+  isReference: boolean('is_reference').notNull().default(false),
   assumptionVersionId: uuid('assumption_version_id').notNull().references(() => assumptionSetVersions.id, { onDelete: 'restrict' }),
   mode: runMode('mode').notNull(),
   seed: bigint('seed', { mode: 'number' }).notNull(),
@@ -84,6 +88,7 @@ export const runs = pgTable('runs', {
   index('runs_portfolio_idx').on(t.portfolioId),
   index('runs_state_idx').on(t.state),
   index('runs_assumption_version_idx').on(t.assumptionVersionId),
+  uniqueIndex('runs_one_reference_per_portfolio').on(t.organisationId, t.portfolioId).where(sql`${t.isReference}`),
 ])
 
 /** The inventory exactly as the run saw it: one row per site (engine SiteInput plus display facts). */

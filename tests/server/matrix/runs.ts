@@ -19,6 +19,8 @@ export const rules: RouteRule[] = [
   { method: 'POST', file: 'server/api/runs/index.post.ts', path: '/api/runs', allowed: [...editors] },
   { method: 'GET', file: 'server/api/runs/[id].get.ts', path: '/api/runs/[id]', allowed: [...everyone], params: { id: 'runId' } },
   { method: 'POST', file: 'server/api/runs/[id]/cancel.post.ts', path: '/api/runs/[id]/cancel', allowed: [...editors], params: { id: 'runId' } },
+  { method: 'PATCH', file: 'server/api/runs/[id].patch.ts', path: '/api/runs/[id]', allowed: [...editors], params: { id: 'runId' }, body: { name: 'Renamed in the matrix' } },
+  { method: 'POST', file: 'server/api/runs/[id]/reference.post.ts', path: '/api/runs/[id]/reference', allowed: [...editors], params: { id: 'runId' } },
   { method: 'POST', file: 'server/api/runs/[id]/retry.post.ts', path: '/api/runs/[id]/retry', allowed: [...editors], params: { id: 'runId' } },
 ]
 
