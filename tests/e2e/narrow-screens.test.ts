@@ -1,7 +1,8 @@
 // The overview, a site's results and the what-if on a phone (390 × 844) and a small laptop or
 // tablet held sideways (1024 × 768): nothing scrolls sideways but wide charts inside their own cards,
 // the rail folds into a menu button on the phone, the top bar's names do not overlap. Screenshots
-// land in docs/screenshots/ (the README shows them).
+// land in test-results/screenshots/; with STORMLEDGER_UPDATE_DOCS_SCREENSHOTS=1 in docs/screenshots/
+// (the README shows them), so that an ordinary `npm test` leaves the tracked files alone.
 import { mkdirSync } from 'node:fs'
 import { resolve } from 'node:path'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
@@ -10,7 +11,9 @@ import { launchBrowser, openGuardedPage, type GuardedPage } from '../support/bro
 import { signInPage } from '../support/browser-session'
 import { DEMO_PASSWORD, DEMO_UNDERWRITER, demoRun } from '../support/demo-run'
 
-const docsShots = resolve(import.meta.dirname, '../../docs/screenshots')
+const docsShots = process.env.STORMLEDGER_UPDATE_DOCS_SCREENSHOTS === '1'
+  ? resolve(import.meta.dirname, '../../docs/screenshots')
+  : resolve(import.meta.dirname, '../../test-results/screenshots')
 const sizes = [{ name: 'phone', width: 390, height: 844 }, { name: 'laptop', width: 1024, height: 768 }] as const
 
 let browser: Browser

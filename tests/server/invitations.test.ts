@@ -42,7 +42,7 @@ describe('invitations', () => {
     expect(accepted.status).toBe(200)
     // The new person is signed in by accepting, in the organisation just joined (issue "Screens a practitioner reads at a glance").
     expect(await accepted.json()).toMatchObject({ signedIn: true, accountCreated: true })
-    expect(await (await newcomer.get('/api/auth/session')).json()).toMatchObject({ role: 'analyst' })
+    expect(await (await newcomer.get('/api/_auth/session')).json()).toMatchObject({ role: 'analyst' })
 
     const client = new Client()
     const signIn = await client.signIn('new.analyst@example.test', 'lightning over the tank farm')
