@@ -75,3 +75,8 @@ export const auditQuerySchema = z.object({
   page: z.coerce.number().int().min(1).max(10_000).default(1),
 })
 export type AuditQuery = z.infer<typeof auditQuerySchema>
+
+/** The audit export: the screen's filters (no page) and the file format. */
+export const auditExportQuerySchema = auditQuerySchema.omit({ page: true }).extend({
+  format: z.enum(['xlsx', 'csv'], 'Choose xlsx or csv.').default('xlsx'),
+})

@@ -38,6 +38,7 @@ export const rules: RouteRule[] = [
   { method: 'DELETE', file: 'server/api/invitations/[id].delete.ts', path: '/api/invitations/[id]', allowed: ADMINS, params: { id: 'invitationId' } },
   { method: 'POST', file: 'server/api/invitations/[id]/resend.post.ts', path: '/api/invitations/[id]/resend', allowed: ADMINS, params: { id: 'invitationId' } },
   { method: 'GET', file: 'server/api/audit/index.get.ts', path: '/api/audit', allowed: ADMINS },
+  { method: 'GET', file: 'server/api/audit/export.get.ts', path: '/api/audit/export', allowed: ADMINS },
   { method: 'GET', file: 'server/api/mailbox/index.get.ts', path: '/api/mailbox', allowed: ADMINS },
 ]
 
