@@ -127,6 +127,24 @@ export function formatShare(share: number | null | undefined, digits = 3): strin
   return `${formatNumber(share * 100, digits)} %`
 }
 
+/**
+ * A probability (of an event in a storm, of a fire): "12.3 %" from 0.1 %, smaller ones with two
+ * significant digits ("0.0032 %"), "0 %" for none — never an exponent.
+ */
+export function formatProbability(p: number | null | undefined): string {
+  if (p === null || p === undefined || Number.isNaN(p)) return '—'
+  if (p <= 0) return '0 %'
+  if (p >= 0.001) return `${(100 * p).toFixed(1)} %`
+  const percent = 100 * p
+  if (percent < 1e-9) return '< 0.000000001 %'
+  return `${percent.toFixed(1 - Math.floor(Math.log10(percent)))} %`
+}
+
+/** A position in decimal degrees with its hemisphere: 32.05, −102.7 → "32.0500° N, 102.7000° W" (WGS 84). */
+export function formatCoordinates(latitudeDeg: number, longitudeDeg: number): string {
+  return `${Math.abs(latitudeDeg).toFixed(4)}° ${latitudeDeg >= 0 ? 'N' : 'S'}, ${Math.abs(longitudeDeg).toFixed(4)}° ${longitudeDeg >= 0 ? 'E' : 'W'}`
+}
+
 /** A whole count with thousands separators: 12345 → "12,345". */
 export function formatCount(count: number | null | undefined): string {
   if (count === null || count === undefined || Number.isNaN(count)) return '—'

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { formatFrequency, formatInterval, formatMoney, formatNumber, formatOnceIn, formatCurrent, formatPotential, roundSignificant } from '../../shared/format'
+import { formatCoordinates, formatProbability, formatFrequency, formatInterval, formatMoney, formatNumber, formatOnceIn, formatCurrent, formatPotential, roundSignificant } from '../../shared/format'
 
 describe('formatting for reading', () => {
   it('writes small frequencies in scientific notation with superscripts', () => {
@@ -59,5 +59,19 @@ describe('short money and counts', async () => {
   it('writes counts with thousands separators and moments in UTC (common practice)', () => {
     expect(formatCount(12345)).toBe('12,345')
     expect(formatDateTime('2026-03-14T21:05:00-03:00')).toBe('2026-03-15 00:05 UTC')
+  })
+})
+
+describe('probabilities and positions (one formatter module, issue #16)', () => {
+  it('writes probabilities as per cent, small ones with two significant digits, never an exponent (common practice)', () => {
+    expect(formatProbability(0.1234)).toBe('12.3 %')
+    expect(formatProbability(0.001)).toBe('0.1 %')
+    expect(formatProbability(0.0000321)).toBe('0.0032 %')
+    expect(formatProbability(0)).toBe('0 %')
+    expect(formatProbability(null)).toBe('—')
+  })
+  it('writes a position with hemispheres, four decimals (≈ 11 m of latitude; common practice)', () => {
+    expect(formatCoordinates(32.05, -102.7)).toBe('32.0500° N, 102.7000° W')
+    expect(formatCoordinates(-33.8688, 151.2093)).toBe('33.8688° S, 151.2093° E')
   })
 })
