@@ -10,7 +10,7 @@ import { settings } from '~~/server/settings'
 const STATE_CHANGING = new Set(['POST', 'PUT', 'PATCH', 'DELETE'])
 
 /** Upload routes and the body types they read (everything else under /api reads JSON). */
-const UPLOAD_TYPES: { path: string, types: string[] }[] = [
+export const UPLOAD_TYPES: { path: string, types: string[] }[] = [
   { path: '/api/inventory/imports', types: ['multipart/form-data'] },
   { path: '/api/calibrations/lightning-files', types: ['text/csv', 'application/octet-stream', 'application/vnd.ms-excel'] },
   { path: '/api/storms/uploads', types: ['text/csv', 'application/octet-stream', 'application/vnd.ms-excel'] },
