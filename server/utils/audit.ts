@@ -28,5 +28,7 @@ export async function recordAudit(entry: AuditEntry, options: { tx?: Executor, e
     before: entry.before ?? null,
     after: entry.after ?? null,
     ipAddress: options.event ? getRequestIP(options.event, { xForwardedFor: false }) ?? null : options.ipAddress ?? null,
+    // A request made with an API token (set by requireMembership) says so; a session's leaves it null.
+    via: options.event?.context.apiToken ? `token ${options.event.context.apiToken.name}` : null,
   })
 }
