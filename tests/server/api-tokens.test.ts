@@ -6,6 +6,9 @@ import { createHash } from 'node:crypto'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, bearerClient, createMember, createOrganisation, memberClient, TEST_PASSWORD } from '../support/accounts'
 import { testPool } from '../support/db'
+import { defaultAssumptions } from '../../shared/engine/assumptions'
+import { createDefaultAssumptions, createFleet } from '../support/fleet'
+import { waitForRun } from '../support/runs'
 
 const pool = testPool()
 afterAll(() => pool.end())
@@ -104,6 +107,10 @@ describe('calling with a token', () => {
     await person.post('/api/portfolios', { name: 'Session portfolio' })
     const both = await pool.query(`SELECT via FROM audit_events WHERE entity = 'portfolio' AND user_id = $1 ORDER BY at`, [userId])
     expect(both.rows.map(r => r.via)).toEqual(['token inventory sync', null])
+    // Admin → Audit log shows it.
+    const admin = await memberClient(pool, org, 'admin')
+    const log = await (await admin.get('/api/audit?entity=portfolio')).json() as { events: { via: string | null, person: { id: string } | null }[] }
+    expect(log.events.filter(e => e.person?.id === userId).map(e => e.via)).toEqual([null, 'token inventory sync']) // newest first
     // Last use is written at most once a minute: a second call within it leaves the time as it was.
     const before = (await pool.query(`SELECT last_used_at FROM api_tokens WHERE id = $1`, [made.id])).rows[0].last_used_at
     await script.get('/api/portfolios')
@@ -198,4 +205,24 @@ describe('admins and the organisation\'s tokens', () => {
     expect((await admin.delete(`/api/tokens/${made.id}`)).status).toBe(200)
     expect((await bearerClient(made.secret).get('/api/portfolios')).status).toBe(401)
   })
+})
+
+describe('the README\'s script (Scripted access)', () => {
+  it('starts a run and downloads its workbook with an analyst\'s token alone', async () => {
+    const person = await memberClient(pool, org, 'analyst')
+    const script = bearerClient((await makeToken(person, { name: 'readme script' })).secret)
+    const portfolioId = await createFleet(pool, org, { sites: 1, tanksPerSite: 1, seed: 'token-readme', name: 'Token readme fleet' })
+    const versionId = await createDefaultAssumptions(pool, org, defaultAssumptions)
+    // The same routes and body as the README's curl lines (fewer years, to keep the test short).
+    const started = await script.post('/api/runs', { portfolioId, assumptionVersionId: versionId, mode: 'year', seed: 42, years: 200 })
+    expect(started.status, await started.clone().text()).toBe(201)
+    const { id } = await started.json() as { id: string }
+    const run = await waitForRun(script, id)
+    expect(run.state).toBe('succeeded')
+    const workbook = await script.get(`/api/runs/${id}/export`)
+    expect(workbook.status).toBe(200)
+    const bytes = new Uint8Array(await workbook.arrayBuffer())
+    // An .xlsx is a zip: it starts with the local file header signature "PK\x03\x04" (APPNOTE.TXT §4.3.7).
+    expect([...bytes.slice(0, 4)]).toEqual([0x50, 0x4B, 0x03, 0x04])
+  }, 120_000)
 })
