@@ -217,6 +217,8 @@ describe('the README\'s script (Scripted access)', () => {
     const started = await script.post('/api/runs', { portfolioId, assumptionVersionId: versionId, mode: 'year', seed: 42, years: 200 })
     expect(started.status, await started.clone().text()).toBe(201)
     const { id } = await started.json() as { id: string }
+    const audit = await pool.query(`SELECT via FROM audit_events WHERE entity = 'run' AND entity_id = $1`, [id])
+    expect(audit.rows).toEqual([{ via: 'token readme script' }])
     const run = await waitForRun(script, id)
     expect(run.state).toBe('succeeded')
     const workbook = await script.get(`/api/runs/${id}/export`)
