@@ -48,6 +48,21 @@ describe('API tokens on the profile', () => {
     expect(await page.getByTestId('api-token-secret').count()).toBe(0)
     expect(await row.innerText()).not.toContain('Never')
 
+    // The organisation's admin sees it, with its owner, under Admin → Members.
+    const adminSide = await openGuardedPage(browser)
+    await adminSide.page.goto(`${base}/sign-in`)
+    await adminSide.page.getByLabel('E-mail').fill('admin@quillfeather.example')
+    await adminSide.page.getByLabel('Password').fill(DEMO_PASSWORD)
+    await adminSide.page.getByRole('button', { name: 'Sign in' }).click()
+    await adminSide.page.waitForURL(`${base}/overview`)
+    await adminSide.page.goto(`${base}/admin/members`)
+    const adminRow = adminSide.page.getByTestId('admin-api-tokens').locator('[data-testid="api-token-row"][data-name="browser test script"]')
+    await adminRow.waitFor()
+    expect(await adminRow.innerText()).toContain('analyst@quillfeather.example')
+    expect(adminSide.outsideRequests).toEqual([])
+    expect(adminSide.consoleErrors).toEqual([])
+    await adminSide.context.close()
+
     await row.getByRole('button', { name: 'Revoke browser test script' }).click()
     await expect.poll(() => row.count()).toBe(0)
     const refused = await script()
