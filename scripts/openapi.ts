@@ -31,7 +31,7 @@ const standIn: unknown = new Proxy(function () {}, {
 
 const g = globalThis as Record<string, unknown>
 g.defineEventHandler = (h: unknown) => h
-const { ROLES } = await import('../server/utils/auth')
+const { ROLES, tokenRefusedOn } = await import('../server/utils/auth')
 const { UPLOAD_TYPES } = await import('../server/middleware/01.request-origin')
 g.ROLES = ROLES
 g.requireMembership = async (_e: unknown, o?: { roles?: readonly string[] }) => {
@@ -126,12 +126,13 @@ async function operation(file: string) {
     ? { required: true, content: { 'application/json': { schema: jsonSchema(current.body) } } }
     : upload ? { required: true, content: Object.fromEntries(upload.types.map(t => [t, { schema: { type: 'string', format: 'binary' } }])) } : undefined
   const roles = current.guarded ? (current.roles ?? ROLES.everyone) : null
+  const tokenRefused = tokenRefusedOn(path)
   return {
     method, path, problems,
     op: {
       operationId: `${method}${path.replace(/\{(\w+)\}/g, 'By_$1').replace(/[^A-Za-z0-9]+(.)?/g, (_m, c: string | undefined) => (c ? c.toUpperCase() : ''))}`,
       summary: sentence(summary.split(/(?<=[.;:])\s/)[0]!.slice(0, 160)),
-      description: `${sentence(summary)}\n\nSource: ${rel}.${roles ? ` Roles: ${roles.join(', ')}.` : ' No session needed.'}`,
+      description: `${sentence(summary)}\n\nSource: ${rel}.${roles ? ` Roles: ${roles.join(', ')}.${tokenRefused ? ' A session only: API tokens are refused here.' : ' A session or an API token.'}` : ''}`,
       tags: [path.split('/')[2] ?? 'api'],
       ...(parameters.length ? { parameters } : {}),
       ...(requestBody ? { requestBody } : {}),
@@ -139,7 +140,7 @@ async function operation(file: string) {
         '200': { description: 'The answer (JSON, or a file download for exports).' },
         default: { description: 'An error: `{ statusCode, statusMessage, data: { fields } }` — a readable message, and per-field messages by dotted path.' },
       },
-      security: roles ? [{ session: [] }] : [],
+      security: roles ? (tokenRefused ? [{ session: [] }] : [{ session: [] }, { apiToken: [] }]) : [],
       'x-roles': roles ?? [],
     },
   }
@@ -167,6 +168,7 @@ export async function buildOpenApi(): Promise<{ document: Record<string, unknown
     components: {
       securitySchemes: {
         session: { type: 'apiKey', in: 'cookie', name: 'nuxt-session', description: 'The session cookie set by POST /api/auth/sign-in.' },
+        apiToken: { type: 'http', scheme: 'bearer', description: 'A personal API token (Profile → API tokens): `Authorization: Bearer slk_…`; it acts with its owner\'s role in one organisation; a read-only token may only GET.' },
       },
     },
     paths,

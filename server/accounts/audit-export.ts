@@ -18,6 +18,7 @@ export const AUDIT_COLUMNS: SheetColumn[] = [
   { header: 'Before', key: 'before', unit: '', width: 30, note: 'Blank: the field did not exist before (a record created).' },
   { header: 'After', key: 'after', unit: '', width: 30, note: 'Blank: the field does not exist after (a record deleted).' },
   { header: 'Client address', key: 'ip', unit: '', width: 16 },
+  { header: 'Via', key: 'via', unit: '', width: 22, note: 'How the person acted: blank for a signed-in session, "token <name>" for an API token.' },
   { header: 'Event id', key: 'eventId', unit: '', width: 38 },
 ]
 
@@ -28,7 +29,7 @@ export async function auditExportRows(organisationId: string, q: Omit<AuditQuery
   for (const e of events) {
     const base = {
       at: e.at.toISOString(), person: e.personName ?? '', email: e.personEmail ?? '', action: e.action, entity: e.entity,
-      entityId: e.entityId ?? null, ip: e.ipAddress ?? null, eventId: e.id,
+      entityId: e.entityId ?? null, ip: e.ipAddress ?? null, via: e.via ?? null, eventId: e.id,
     }
     const lines = auditChangeLines(e.before, e.after)
     // Blank (not an empty text) where an event has no fields or a field had no value before or after.

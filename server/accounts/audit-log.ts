@@ -26,7 +26,7 @@ function auditWhere(organisationId: string, q: Omit<AuditQuery, 'page'>): SQL {
 function eventsQuery(where: SQL) {
   return useDb().select({
     id: auditEvents.id, at: auditEvents.at, action: auditEvents.action, entity: auditEvents.entity, entityId: auditEvents.entityId,
-    before: auditEvents.before, after: auditEvents.after, ipAddress: auditEvents.ipAddress,
+    before: auditEvents.before, after: auditEvents.after, ipAddress: auditEvents.ipAddress, via: auditEvents.via,
     personId: users.id, personName: users.name, personEmail: users.email,
   }).from(auditEvents).leftJoin(users, eq(users.id, auditEvents.userId))
     .where(where).orderBy(desc(auditEvents.at), desc(auditEvents.id))

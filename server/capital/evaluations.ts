@@ -21,7 +21,7 @@ export interface StartEvaluation { assumptionVersionId: string, seed?: number, s
 /** Key of a bundle: the site's chosen actions measured together. */
 export const bundleKey = (siteId: string) => `bundle:${siteId}`
 
-export async function startEvaluation(input: StartEvaluation, by: { userId: string | null, organisationId: string }) {
+export async function startEvaluation(input: StartEvaluation, by: { userId: string | null, organisationId: string, via?: string | null }) {
   const db = useDb()
   const [version] = await db.select({ v: assumptionSetVersions, setName: assumptionSets.name, archivedAt: assumptionSets.archivedAt }).from(assumptionSetVersions)
     .innerJoin(assumptionSets, eq(assumptionSets.id, assumptionSetVersions.assumptionSetId))
@@ -65,7 +65,7 @@ export async function startEvaluation(input: StartEvaluation, by: { userId: stri
     await recordAudit({
       organisationId: by.organisationId, userId: by.userId, action: 'create', entity: 'capital_evaluation', entityId: evaluationId,
       after: { actions: actions.length, sites: perSite.length, seed, samplesPerTank: input.samplesPerTank, plan: input.planId ?? null },
-    }, { tx })
+    }, { tx, via: by.via })
     return evaluation!
   })
 }

@@ -18,7 +18,7 @@ import { inputHash, loadPortfolioSites } from './snapshot'
 
 export type StartRun = z.output<typeof startRunSchema>
 
-export async function startRun(input: StartRun, by: { userId: string | null, organisationId: string }, options: { retryOf?: string } = {}) {
+export async function startRun(input: StartRun, by: { userId: string | null, organisationId: string, via?: string | null }, options: { retryOf?: string } = {}) {
   const db = useDb()
   const readable = await readablePortfolio(by.organisationId, input.portfolioId)
   if (!readable) throw new AppError(404, 'Portfolio not found.')
@@ -67,7 +67,7 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
     await recordAudit({
       organisationId: by.organisationId, userId: by.userId, action: 'create', entity: 'run', entityId: runId,
       after: { portfolio: portfolio.name, assumptions: `${version.setName} v${version.v.version}`, mode: input.mode, seed, sites: snapshot.length },
-    }, { tx })
+    }, { tx, via: by.via })
     return run!
   })
 }

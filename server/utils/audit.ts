@@ -17,7 +17,8 @@ export interface AuditEntry {
 
 /** Records one change. Pass the transaction so the record commits (or rolls back) with the change. */
 /** `ipAddress` stands in for `event` in background jobs that act on a request's behalf. */
-export async function recordAudit(entry: AuditEntry, options: { tx?: Executor, event?: H3Event, ipAddress?: string | null } = {}): Promise<void> {
+/** `via` stands in for `event` in services that record a request's change without it (auditVia). */
+export async function recordAudit(entry: AuditEntry, options: { tx?: Executor, event?: H3Event, ipAddress?: string | null, via?: string | null } = {}): Promise<void> {
   const executor = options.tx ?? useDb()
   await executor.insert(auditEvents).values({
     organisationId: entry.organisationId,
@@ -28,5 +29,12 @@ export async function recordAudit(entry: AuditEntry, options: { tx?: Executor, e
     before: entry.before ?? null,
     after: entry.after ?? null,
     ipAddress: options.event ? getRequestIP(options.event, { xForwardedFor: false }) ?? null : options.ipAddress ?? null,
+    // A request made with an API token (set by requireMembership) says so; a session's leaves it null.
+    via: options.event ? auditVia(options.event) : options.via ?? null,
   })
+}
+
+/** 'token <name>' for a request made with an API token (set by requireMembership), null for a session. */
+export function auditVia(event: H3Event): string | null {
+  return event.context.apiToken ? `token ${event.context.apiToken.name}` : null
 }

@@ -80,3 +80,28 @@ export type AuditQuery = z.infer<typeof auditQuerySchema>
 export const auditExportQuerySchema = auditQuerySchema.omit({ page: true }).extend({
   format: z.enum(['xlsx', 'csv'], 'Choose xlsx or csv.').default('xlsx'),
 })
+
+/** API tokens: the form proposes an expiry this many days ahead (a token lives at most one year). */
+export const API_TOKEN_DEFAULT_DAYS = 90
+const DAY_MS = 24 * 60 * 60 * 1000
+
+/** The UTC calendar day `days` from `now`, as YYYY-MM-DD (the form's default expiry). */
+export function apiTokenDefaultExpiry(now = Date.now(), days = API_TOKEN_DEFAULT_DAYS): string {
+  return new Date(now + days * DAY_MS).toISOString().slice(0, 10)
+}
+
+/** A token's expiry: a UTC calendar day after today and at most one year ahead; it ends at that day's 23:59:59 UTC. */
+export const apiTokenExpirySchema = z.string({ message: 'Choose an expiry date.' })
+  .regex(/^\d{4}-\d{2}-\d{2}$/, 'Write the expiry as YYYY-MM-DD.')
+  .refine(s => !Number.isNaN(Date.parse(`${s}T00:00:00Z`)) && new Date(`${s}T00:00:00Z`).toISOString().startsWith(s), 'That date does not exist.')
+  .refine(s => Date.parse(`${s}T23:59:59Z`) > Date.now(), 'Choose an expiry after today.')
+  .refine(s => Date.parse(`${s}T00:00:00Z`) <= Date.now() + 365 * DAY_MS, 'A token lives at most one year: choose a date within a year from today.')
+
+export const createApiTokenSchema = z.object({
+  name: z.string().trim().min(1, 'Name the token (e.g. what script uses it).').max(80, 'Use at most 80 characters.'),
+  expiresOn: apiTokenExpirySchema,
+  readOnly: z.boolean().default(false),
+  /** The organisation it acts in; the current one when left out. */
+  organisationId: z.uuid('Choose an organisation.').optional(),
+})
+export type CreateApiTokenInput = z.input<typeof createApiTokenSchema>

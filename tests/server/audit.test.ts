@@ -69,7 +69,7 @@ describe('GET /api/audit/export', () => {
     await wb.xlsx.load(Buffer.from(await res.arrayBuffer()) as unknown as ArrayBuffer)
     const sheet = wb.getWorksheet('Audit log')!
     const header = (sheet.getRow(1).values as unknown[]).slice(1)
-    expect(header).toEqual(['Time (UTC)', 'Person', 'E-mail', 'Action', 'Entity', 'Entity id', 'Field', 'Before', 'After', 'Client address', 'Event id'])
+    expect(header).toEqual(['Time (UTC)', 'Person', 'E-mail', 'Action', 'Entity', 'Entity id', 'Field', 'Before', 'After', 'Client address', 'Via', 'Event id'])
     const rows = [] as unknown[][]
     sheet.eachRow((r, n) => { if (n > 1) rows.push((r.values as unknown[]).slice(1, 10)) })
     // Only the two site events of 2025 (the filters), newest first; the update has two changed fields.
@@ -88,7 +88,7 @@ describe('GET /api/audit/export', () => {
     const csv = await admin.get('/api/audit/export?format=csv&entity=site&from=2025-02-01&to=2025-02-01')
     expect(csv.status).toBe(200)
     const lines = (await csv.text()).trim().split(/\r?\n/)
-    expect(lines[0]).toBe('Time (UTC),Person,E-mail,Action,Entity,Entity id,Field,Before,After,Client address,Event id')
+    expect(lines[0]).toBe('Time (UTC),Person,E-mail,Action,Entity,Entity id,Field,Before,After,Client address,Via,Event id')
     expect(lines).toHaveLength(3) // the header and the two changed fields of the one event that day
     expect(lines[1]).toContain('\'=HYPERLINK') // formula-safe in CSV too
 

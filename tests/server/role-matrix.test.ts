@@ -1,11 +1,14 @@
 // The role × route matrix (contract in tests/server/matrix/types.ts): every file under server/api/
 // has a rule; each rule's statuses hold for anonymous callers and for every role; every route that
-// takes an id answers 404 — never data — to members of another organisation.
+// takes an id answers 404 — never data — to members of another organisation. The same statuses hold
+// for an API token of each role (Authorization: Bearer, no session), except on the routes tokens
+// never open (server/utils/auth.ts TOKEN_REFUSED_PATHS: 403 to every token); a revoked and an
+// expired token answer 401 on every guarded route, a read-only token 403 on every guarded write.
 import { randomUUID } from 'node:crypto'
 import { readdirSync } from 'node:fs'
 import { relative, resolve } from 'node:path'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
-import { ALL_ROLES, Client, createMember, createOrganisation, type RoleName } from '../support/accounts'
+import { ALL_ROLES, bearerClient, Client, createMember, createOrganisation, insertApiToken, type RoleName } from '../support/accounts'
 import { testPool } from '../support/db'
 import type { MatrixModule, RouteRule } from './matrix/types'
 
@@ -63,14 +66,22 @@ describe('every route file has a rule', () => {
 const home: Record<RoleName, Client> = {} as Record<RoleName, Client>
 const other: Record<RoleName, Client> = {} as Record<RoleName, Client>
 const homeEmails: Record<string, string> = {}
+/** An API token of each home member, and three of the home admin: revoked, expired, read-only. */
+const homeTokens: Record<RoleName, Client> = {} as Record<RoleName, Client>
+const specialTokens: Record<'revoked' | 'expired' | 'readOnly', Client> = {} as Record<'revoked' | 'expired' | 'readOnly', Client>
 const fixtures = new Map<string, Record<string, string>>()
 
-async function signedIn(organisationId: string, role: RoleName): Promise<{ client: Client, email: string }> {
-  const { email } = await createMember(pool, organisationId, role)
+async function signedIn(organisationId: string, role: RoleName): Promise<{ client: Client, email: string, userId: string }> {
+  const { email, userId } = await createMember(pool, organisationId, role)
   const client = new Client()
   const res = await client.signIn(email)
   if (res.status !== 200) throw new Error(`sign-in failed for ${email}: ${res.status}`)
-  return { client, email }
+  return { client, email, userId }
+}
+
+/** Mirrors TOKEN_REFUSED_PATHS in server/utils/auth.ts: tokens never open these. */
+function tokenRefused(path: string): boolean {
+  return path.startsWith('/api/auth/') || path === '/api/tokens' || path.startsWith('/api/tokens/')
 }
 
 beforeAll(async () => {
@@ -80,6 +91,12 @@ beforeAll(async () => {
     const h = await signedIn(homeOrg, role)
     home[role] = h.client
     homeEmails[role] = h.email
+    homeTokens[role] = bearerClient((await insertApiToken(pool, h.userId, homeOrg, { name: `matrix ${role}` })).secret)
+    if (role === 'admin') {
+      specialTokens.revoked = bearerClient((await insertApiToken(pool, h.userId, homeOrg, { state: 'revoked' })).secret)
+      specialTokens.expired = bearerClient((await insertApiToken(pool, h.userId, homeOrg, { state: 'expired' })).secret)
+      specialTokens.readOnly = bearerClient((await insertApiToken(pool, h.userId, homeOrg, { readOnly: true })).secret)
+    }
     other[role] = (await signedIn(otherOrg, role)).client
   }
   for (const m of modules) fixtures.set(m.file, m.fixtures ? await m.fixtures(pool, homeOrg) : {})
@@ -115,6 +132,31 @@ describe.each(allRules.map(x => [`${x.rule.method} ${x.rule.path}`, x] as const)
     for (const [who, status] of Object.entries(statuses)) {
       const mayCall = rule.allowed === 'public' || (typeof rule.allowed !== 'string' && who !== 'anonymous' && rule.allowed.includes(who as RoleName))
       expected[who] = mayCall ? 'passes the guard' : who === 'anonymous' || rule.allowed === 'token' ? '401' : '403'
+      actual[who] = status === 401 || status === 403 ? String(status) : 'passes the guard'
+    }
+    expect(actual, `statuses: ${JSON.stringify(statuses)}`).toEqual(expected)
+  })
+
+  const tokenTitle = rule.allowed === 'public'
+    ? 'is open to API tokens too'
+    : rule.allowed === 'token' ? 'answers 401 to API tokens' : tokenRefused(rule.path) ? 'answers 403 to every API token (sessions only)' : 'answers API tokens of each role as it answers their sessions; revoked and expired tokens 401'
+  it(tokenTitle, async () => {
+    const path = pathWith(rule, () => randomUUID())
+    const callers: [string, Client][] = [...ALL_ROLES.map(role => [role, homeTokens[role]] as [string, Client]), ['revoked', specialTokens.revoked], ['expired', specialTokens.expired]]
+    if (rule.method !== 'GET') callers.push(['readOnly', specialTokens.readOnly])
+    const statuses: Record<string, number> = {}
+    for (const [who, client] of callers) statuses[who] = (await call(client, rule, path)).status
+    const expected: Record<string, string> = {}
+    const actual: Record<string, string> = {}
+    for (const [who, status] of Object.entries(statuses)) {
+      let want: string
+      if (rule.allowed === 'public') want = 'passes the guard'
+      else if (rule.allowed === 'token') want = '401'
+      else if (tokenRefused(rule.path)) want = '403'
+      else if (who === 'revoked' || who === 'expired') want = '401'
+      else if (who === 'readOnly') want = '403'
+      else want = rule.allowed.includes(who as RoleName) ? 'passes the guard' : '403'
+      expected[who] = want
       actual[who] = status === 401 || status === 403 ? String(status) : 'passes the guard'
     }
     expect(actual, `statuses: ${JSON.stringify(statuses)}`).toEqual(expected)

@@ -24,11 +24,11 @@ export default defineEventHandler(async (event) => {
   const passwordHash = await hashPassword(body.newPassword)
   const updated = await db.transaction(async (tx) => {
     const [row] = await tx.update(users).set({ passwordHash, sessionVersion: sql`${users.sessionVersion} + 1` }).where(eq(users.id, member.user.id)).returning()
-    await revokeUserSessions(member.user.id, { keepId: member.sessionId, executor: tx })
+    await revokeUserSessions(member.user.id, { keepId: member.sessionId ?? undefined, executor: tx })
     await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'password_change', entity: 'account', entityId: member.user.id }, { tx, event })
     return row!
   })
-  await startMemberSession(event, updated, { organisationId: member.organisationId, role: member.role }, member.sessionId)
+  await startMemberSession(event, updated, { organisationId: member.organisationId, role: member.role }, member.sessionId ?? undefined)
   await queueMail(updated.email, passwordChangedMail({ signInLink: appLink('/sign-in'), resetLink: appLink('/reset-password') }), 'personal')
   return { ok: true }
 })

@@ -12,6 +12,6 @@ export default defineEventHandler(async (event) => {
   if (!target) notFound('Organisation')
   const db = useDb()
   const [user] = await db.update(users).set({ lastOrganisationId: target.organisationId }).where(eq(users.id, member.user.id)).returning()
-  await startMemberSession(event, user!, target, member.sessionId)
+  await startMemberSession(event, user!, target, member.sessionId ?? undefined)
   return { ok: true, organisationId: target.organisationId, role: target.role }
 })

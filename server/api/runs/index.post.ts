@@ -5,7 +5,7 @@ import { startRun } from '~~/server/runs/start'
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
   const body = await readValidBody(event, startRunSchema)
-  const run = await startRun(body, { userId: member.user.id, organisationId: member.organisationId })
+  const run = await startRun(body, { userId: member.user.id, organisationId: member.organisationId, via: auditVia(event) })
   setResponseStatus(event, 201)
   return run
 })

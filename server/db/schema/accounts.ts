@@ -110,3 +110,33 @@ export const userSessions = pgTable('user_sessions', {
   userAgent: text('user_agent').notNull().default(''),
   ipAddress: text('ip_address').notNull().default(''),
 }, t => [index('user_sessions_user_idx').on(t.userId, t.createdAt)])
+
+/**
+ * A personal API token: acts as its owner with the owner's role in one organisation. Only the
+ * SHA-256 of the secret is stored (with its last 4 characters, for display); a token stops working
+ * when revoked, past its expiry, when the membership goes, the account is disabled, or the owner's
+ * password is reset or changed (its session version then no longer matches).
+ */
+export const apiTokens = pgTable('api_tokens', {
+  id: uuid('id').primaryKey().defaultRandom(),
+  userId: uuid('user_id').notNull().references(() => users.id, { onDelete: 'cascade' }),
+  organisationId: uuid('organisation_id').notNull().references(() => organisations.id, { onDelete: 'cascade' }),
+  name: text('name').notNull(),
+  tokenHash: text('token_hash').notNull(),
+  /** The secret's last 4 characters, so a person can tell their tokens apart. */
+  lastFour: text('last_four').notNull(),
+  readOnly: boolean('read_only').notNull().default(false),
+  /** The owner's session_version when the token was made. */
+  sessionVersion: integer('session_version').notNull(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  revokedAt: timestamp('revoked_at', { withTimezone: true }),
+  revokedById: uuid('revoked_by_id').references(() => users.id, { onDelete: 'set null' }),
+  /** Updated at most once a minute per token, so most requests only read. */
+  lastUsedAt: timestamp('last_used_at', { withTimezone: true }),
+  lastUsedAddress: text('last_used_address'),
+}, t => [
+  uniqueIndex('api_tokens_hash_unique').on(t.tokenHash),
+  index('api_tokens_user_idx').on(t.userId, t.createdAt),
+  index('api_tokens_org_idx').on(t.organisationId, t.createdAt),
+])

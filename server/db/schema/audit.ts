@@ -14,6 +14,8 @@ export const auditEvents = pgTable('audit_events', {
   before: jsonb('before'),
   after: jsonb('after'),
   ipAddress: text('ip_address'),
+  /** Set when the change was made with an API token: 'token <name>'; null for a session. */
+  via: text('via'),
   at: timestamp('at', { withTimezone: true }).notNull().defaultNow(),
 }, t => [
   index('audit_org_at_idx').on(t.organisationId, t.at),

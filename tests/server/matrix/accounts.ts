@@ -1,7 +1,7 @@
 // Role matrix rules for accounts, sign-in and health (see types.ts for what each rule asserts).
 import { randomBytes, createHash } from 'node:crypto'
 import type pg from 'pg'
-import { createMember } from '../../support/accounts'
+import { createMember, insertApiToken } from '../../support/accounts'
 import type { MatrixModule, RoleName, RouteRule } from './types'
 
 const ADMINS: RoleName[] = ['admin']
@@ -28,6 +28,10 @@ export const rules: RouteRule[] = [
   { method: 'GET', file: 'server/api/auth/sessions/index.get.ts', path: '/api/auth/sessions', allowed: EVERYONE },
   { method: 'POST', file: 'server/api/auth/sessions/sign-out-everywhere.post.ts', path: '/api/auth/sessions/sign-out-everywhere', allowed: EVERYONE },
   { method: 'GET', file: 'server/api/my-mail/index.get.ts', path: '/api/my-mail', allowed: EVERYONE },
+  // One's own API tokens: every member, only ever their own (another person's token answers 404).
+  { method: 'GET', file: 'server/api/auth/tokens/index.get.ts', path: '/api/auth/tokens', allowed: EVERYONE },
+  { method: 'POST', file: 'server/api/auth/tokens/index.post.ts', path: '/api/auth/tokens', allowed: EVERYONE },
+  { method: 'DELETE', file: 'server/api/auth/tokens/[id].delete.ts', path: '/api/auth/tokens/[id]', allowed: EVERYONE, params: { id: 'apiTokenId' } },
 
   // The organisation's people: admins only.
   { method: 'GET', file: 'server/api/members/index.get.ts', path: '/api/members', allowed: ADMINS },
@@ -40,17 +44,20 @@ export const rules: RouteRule[] = [
   { method: 'GET', file: 'server/api/audit/index.get.ts', path: '/api/audit', allowed: ADMINS },
   { method: 'GET', file: 'server/api/audit/export.get.ts', path: '/api/audit/export', allowed: ADMINS },
   { method: 'GET', file: 'server/api/mailbox/index.get.ts', path: '/api/mailbox', allowed: ADMINS },
+  { method: 'GET', file: 'server/api/tokens/index.get.ts', path: '/api/tokens', allowed: ADMINS },
+  { method: 'DELETE', file: 'server/api/tokens/[id].delete.ts', path: '/api/tokens/[id]', allowed: ADMINS, params: { id: 'apiTokenId' } },
 ]
 
-/** A member (viewer) and an open invitation in the organisation, for the cross-organisation probes. */
+/** A member (viewer) with an API token and an open invitation in the organisation, for the cross-organisation probes. */
 export async function fixtures(pool: pg.Pool, organisationId: string): Promise<Record<string, string>> {
-  const { membershipId } = await createMember(pool, organisationId, 'viewer')
+  const { membershipId, userId } = await createMember(pool, organisationId, 'viewer')
   const tokenHash = createHash('sha256').update(randomBytes(32).toString('base64url')).digest('hex')
   const invitation = await pool.query(
     `INSERT INTO invitations (organisation_id, email, role, token_hash, expires_at) VALUES ($1, $2, 'analyst', $3, now() + interval '7 days') RETURNING id`,
     [organisationId, `invitee.${randomBytes(4).toString('hex')}@example.test`, tokenHash],
   )
-  return { membershipId, invitationId: invitation.rows[0].id }
+  const apiToken = await insertApiToken(pool, userId, organisationId, { name: 'matrix fixture token' })
+  return { membershipId, invitationId: invitation.rows[0].id, apiTokenId: apiToken.id }
 }
 
 export default { rules, fixtures } satisfies MatrixModule

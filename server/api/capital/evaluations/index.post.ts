@@ -5,7 +5,7 @@ import { startEvaluation } from '~~/server/capital/evaluations'
 export default defineEventHandler(async (event) => {
   const member = await requireMembership(event, { roles: ROLES.editors })
   const body = await readValidBody(event, startEvaluationSchema)
-  const evaluation = await startEvaluation(body, { userId: member.user.id, organisationId: member.organisationId })
+  const evaluation = await startEvaluation(body, { userId: member.user.id, organisationId: member.organisationId, via: auditVia(event) })
   setResponseStatus(event, 201)
   return evaluation
 })

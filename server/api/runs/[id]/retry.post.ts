@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
     portfolioId: run.portfolioId, assumptionVersionId: run.assumptions.versionId, mode: run.mode, seed: run.seed,
     targetRse: run.targetRse, years: run.years, maxSamplesPerTank: run.maxSamplesPerTank, chunkSize: run.chunkSize,
     negligibleRatePerYear: run.negligibleRatePerYear,
-  }, { userId: member.user.id, organisationId: member.organisationId }, { retryOf: id })
+  }, { userId: member.user.id, organisationId: member.organisationId, via: auditVia(event) }, { retryOf: id })
   setResponseStatus(event, 201)
   return again
 })
