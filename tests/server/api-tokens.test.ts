@@ -168,7 +168,7 @@ describe('calling with a token', () => {
     expect(write.status).toBe(403)
     expect(((await write.json()) as { message: string }).message).toBe('This token is read-only.')
     const full = bearerClient((await makeToken(person, { name: 'full' })).secret)
-    for (const [method, path] of [['GET', '/api/auth/tokens'], ['POST', '/api/auth/tokens'], ['GET', '/api/auth/session'], ['POST', '/api/auth/change-password'], ['GET', '/api/tokens']] as const) {
+    for (const [method, path] of [['GET', '/api/auth/tokens'], ['POST', '/api/auth/tokens'], ['GET', '/api/auth/sessions'], ['POST', '/api/auth/change-password'], ['GET', '/api/tokens']] as const) {
       expect((await full.request(method, path, method === 'GET' ? undefined : {})).status, `${method} ${path}`).toBe(403)
     }
   })
