@@ -123,12 +123,13 @@ export async function updateReferral(event: H3Event, member: Member, noteId: str
     if (patch.dueOn !== undefined && patch.dueOn !== note.dueOn) {
       set.dueOn = patch.dueOn; before.dueOn = note.dueOn; after.dueOn = patch.dueOn
     }
-    if (Object.keys(set).length === 0) return { note, siteName, changed: false }
+    if (Object.keys(set).length === 0) return { note, siteName, newAssignee: false }
     const [row] = await tx.update(siteNotes).set({ ...set, updatedAt: new Date() }).where(eq(siteNotes.id, note.id)).returning()
     await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'update', entity: 'site_note', entityId: note.id, before, after }, { tx, event })
-    return { note: row!, siteName, changed: true }
+    return { note: row!, siteName, newAssignee: 'assigneeId' in set }
   })
-  if (result.changed && to && to.id !== member.user.id && to.id !== undefined && patch.assigneeId !== undefined) await mailAssignee(member, to, result.note, result.siteName)
+  // Mailed only when the referral is given to someone new (not for a status change, not to oneself).
+  if (result.newAssignee && to && to.id !== member.user.id) await mailAssignee(member, to, result.note, result.siteName)
   return (await referralsWhere(member.organisationId, and(eq(siteNotes.id, noteId)), 'newest'))[0]!
 }
 

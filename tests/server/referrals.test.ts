@@ -3,7 +3,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { Client, createMember, createOrganisation, memberClient } from '../support/accounts'
 import { testPool } from '../support/db'
-import { waitForMail } from '../support/mail'
+import { mailTo, waitForMail } from '../support/mail'
 
 const pool = testPool()
 afterAll(() => pool.end())
@@ -16,6 +16,7 @@ let underwriter: Client
 let viewer: Client
 let assignee: { client: Client, userId: string, email: string }
 let bystander: Client
+let bystanderUser: { userId: string, email: string }
 
 beforeAll(async () => {
   org = await createOrganisation(pool, 'Referral Test Insurer', 'insurer')
@@ -24,7 +25,9 @@ beforeAll(async () => {
   siteId = site.id
   underwriter = await memberClient(pool, org, 'underwriter')
   viewer = await memberClient(pool, org, 'viewer')
-  bystander = await memberClient(pool, org, 'analyst')
+  bystanderUser = await createMember(pool, org, 'analyst')
+  bystander = new Client()
+  expect((await bystander.signIn(bystanderUser.email)).status).toBe(200)
   const a = await createMember(pool, org, 'asset_manager')
   const client = new Client()
   expect((await client.signIn(a.email)).status).toBe(200)
@@ -94,5 +97,16 @@ describe('referrals', () => {
     const outsider = await memberClient(pool, other, 'underwriter')
     expect(await (await outsider.get('/api/referrals?state=all')).json()).toEqual([])
     expect((await outsider.patch(`/api/referrals/${referral.id}`, { status: 'declined' })).status).toBe(404)
+  })
+
+  it('mails the new assignee when a referral changes hands, and nobody again for a status change', async () => {
+    const since = new Date()
+    expect((await underwriter.patch(`/api/referrals/${referral.id}`, { assigneeId: bystanderUser.userId })).status).toBe(200)
+    const mail = await waitForMail(pool, bystanderUser.email, since)
+    expect(mail.subject).toBe('Referral for you: Harrowgate Flats')
+    // The same assignee sent again with a status change: no second mail.
+    expect((await underwriter.patch(`/api/referrals/${referral.id}`, { assigneeId: bystanderUser.userId, status: 'declined' })).status).toBe(200)
+    await new Promise(r => setTimeout(r, 3000)) // the mail worker delivers within a second or two (mail.send polls every second)
+    expect((await mailTo(pool, bystanderUser.email)).filter(m => m.subject.startsWith('Referral for you'))).toHaveLength(1)
   })
 })
