@@ -78,8 +78,8 @@ describe('calibration in a real browser', () => {
     await save.click()
     await expect.poll(() => page.getByTestId('save-confirmation').innerText()).toContain(`version 2 of “${setName}”`)
     // The button cannot save the same thing twice; the choices stay as they were.
+    await expect.poll(() => save.innerText()).toBe('Saved as version 2')
     expect(await save.isDisabled()).toBe(true)
-    expect(await save.innerText()).toBe('Saved as version 2')
     expect(await page.getByTestId('save-set').locator('option:checked').innerText()).toBe(setName)
     await saveScreenshot(page, 'calibration-saved-version')
     await page.getByTestId('save-confirmation').getByRole('link').click()
