@@ -20,16 +20,16 @@ function s3(): S3Client {
     ...(o.fake ? { credentials: { accessKeyId: 'S3RVER', secretAccessKey: 'S3RVER' } } : {}),
     maxAttempts: 2,
     // An unreachable or hung store answers 503 within seconds instead of holding the request.
-    requestHandler: { connectionTimeout: settings.objects.timeoutMs, requestTimeout: settings.objects.timeoutMs },
+    requestHandler: { connectionTimeout: settings.objects.timeoutMs, requestTimeout: settings.objects.timeoutMs, throwOnRequestTimeout: true },
   })
   return client
 }
 
 /** The answer when the store cannot be reached: 503 with words a person can act on. */
 export class ObjectStoreUnavailable extends AppError {
-  constructor(cause: unknown) {
+  // Kept as `reason`, not `cause`: h3 answers with an error's cause when it has one.
+  constructor(readonly reason: unknown) {
     super(503, 'File storage is not reachable just now; nothing was changed. Try again in a few minutes, or ask your administrator to check the object store.')
-    this.cause = cause
   }
 }
 
