@@ -7,7 +7,7 @@ import { resolve } from 'node:path'
 import { settings } from '../server/settings'
 import { startMailFake } from '../server/mail/fake-smtp'
 import { startS3Fake } from '../server/storage/fake-s3'
-import { moveImportFilesToStorage } from '../server/storage/move'
+import { moveFilesToStorage } from '../server/storage/move'
 import { closeDb } from '../server/db/index'
 import { sessionSecret } from './session-secret'
 import { demoSignIns } from './demo-sign-ins'
@@ -71,8 +71,8 @@ if (settings.objects.fake && process.env.STORMLEDGER_S3_FAKE_EXTERNAL !== '1') {
   console.log(`[start] S3 fake listening on 127.0.0.1:${settings.objects.fakePort} (files under .data/s3/)`)
 }
 // Files stored in PostgreSQL before object storage: moved once the store is up (idempotent).
-const { moved } = await moveImportFilesToStorage()
-if (moved > 0) console.log(`[start] moved ${moved} stored inventory file${moved === 1 ? '' : 's'} to object storage`)
+const { moved } = await moveFilesToStorage()
+if (moved > 0) console.log(`[start] moved ${moved} stored file${moved === 1 ? '' : 's'} to object storage`)
 run('worker', resolve(root, 'node_modules/.bin/tsx'), ['server/jobs/worker.ts'])
 if (process.argv.includes('--dev')) run('server', resolve(root, 'node_modules/.bin/nuxt'), ['dev', '--port', String(port)])
 else run('server', process.execPath, ['.output/server/index.mjs'])

@@ -2,6 +2,7 @@
 // SHA-256; the commit re-reads the object; files kept in PostgreSQL before are moved by the move
 // script; an unreachable store answers 503 and leaves nothing half-written.
 import { createHash } from 'node:crypto'
+import { gunzipSync, gzipSync } from 'node:zlib'
 import { spawnSync } from 'node:child_process'
 import { resolve } from 'node:path'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
@@ -97,6 +98,32 @@ describe('inventory files in object storage', () => {
 
     const res = await analyst.post(`/api/inventory/imports/${id}/commit`, {})
     expect(res.status, await res.clone().text()).toBe(200)
+  }, 60_000)
+
+  it('a lightning-records file is stored gzip-compressed in the S3 fake, and the move script moves a legacy one', async () => {
+    // Three valid records in the documented column layout (README "Lightning-location records").
+    const csv = 'time,latitude,longitude,peak_current_ka,type\n2021-06-01T10:00:00Z,29.70,-95.30,-31,ground\n2021-06-01T10:00:05Z,29.71,-95.31,-12,ground\n2021-06-02T11:00:00Z,29.72,-95.32,25,ground\n'
+    const res = await fetch(`${inject('baseUrl')}/api/calibrations/lightning-files?name=os-strokes.csv`, { method: 'POST', headers: { 'cookie': analyst.cookie, 'content-type': 'text/csv' }, body: csv })
+    const file = await res.json() as { id: string, statusMessage?: string }
+    expect(res.status, file.statusMessage).toBe(201)
+    const read = async () => (await pool.query(`SELECT content_key, content_size, content_sha256, content_gzip IS NULL AS no_bytes, sha256 FROM calibration_files WHERE id = $1`, [file.id])).rows[0]
+    const row = await read()
+    expect(row.no_bytes).toBe(true)
+    expect(row.sha256).toBe(sha256(csv)) // the original file's SHA-256 (closed form, node:crypto)
+    const object = await getObjectBuffer(row.content_key)
+    expect(gunzipSync(object).toString('utf8')).toBe(csv) // the object is the file, gzip-compressed
+    expect({ size: Number(row.content_size), sha: row.content_sha256 }).toEqual({ size: object.length, sha: sha256(object) })
+
+    // A row from before object storage: the compressed bytes in the column, no key.
+    await pool.query(`UPDATE calibration_files SET content_gzip = $2, content_key = NULL, content_size = NULL, content_sha256 = NULL WHERE id = $1`, [file.id, gzipSync(csv)])
+    await deleteObject(row.content_key)
+    const env = { ...appEnv({ dbName: inject('dbName'), port: inject('appPort'), mailPort: inject('mailPort'), s3Port: inject('s3Port'), seedDemo: false }) }
+    delete env.DATABASE_URL
+    const moved = spawnSync(resolve(root, 'node_modules/.bin/tsx'), ['scripts/move-files-to-storage.ts'], { cwd: root, env, encoding: 'utf8' })
+    expect(moved.status, moved.stderr).toBe(0)
+    const after = await read()
+    expect(after.no_bytes).toBe(true)
+    expect(gunzipSync(await getObjectBuffer(after.content_key, after.content_sha256)).toString('utf8')).toBe(csv)
   }, 60_000)
 
   it('an unreachable store answers 503 with a readable message and leaves no row pointing at a missing object', async () => {
