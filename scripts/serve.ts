@@ -68,7 +68,7 @@ if (settings.mail.captured) {
 // STORMLEDGER_S3_FAKE_EXTERNAL=1: the fake runs as its own process (the tests start it, scripts/s3-fake.ts).
 if (settings.objects.fake && process.env.STORMLEDGER_S3_FAKE_EXTERNAL !== '1') {
   s3Fake = await startS3Fake(root)
-  console.log(`[start] S3 fake listening on 127.0.0.1:${settings.objects.fakePort} (files under .data/s3/)`)
+  console.log(`[start] S3 fake listening on 127.0.0.1:${settings.objects.fakePort} (files under ${process.env.STORMLEDGER_S3_FAKE_DIR || '.data/s3'}/)`)
 }
 // Files stored in PostgreSQL before object storage: moved once the store is up (idempotent).
 const { moved } = await moveFilesToStorage()
