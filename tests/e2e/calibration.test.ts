@@ -79,7 +79,8 @@ describe('calibration in a real browser', () => {
     await expect.poll(() => page.getByTestId('save-confirmation').innerText()).toContain(`version 2 of “${setName}”`)
     // The button cannot save the same thing twice; the choices stay as they were.
     expect(await save.isDisabled()).toBe(true)
-    expect(await save.innerText()).toBe('Saved as version 2')
+    // The confirmation shows before the page's data has refreshed; the button says so once it has.
+    await expect.poll(() => save.innerText()).toBe('Saved as version 2')
     expect(await page.getByTestId('save-set').locator('option:checked').innerText()).toBe(setName)
     await saveScreenshot(page, 'calibration-saved-version')
     await page.getByTestId('save-confirmation').getByRole('link').click()
