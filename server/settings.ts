@@ -34,5 +34,24 @@ export const settings = {
   get uploadThreads() { return Number(process.env.STORMLEDGER_UPLOAD_THREADS ?? 0) || 2 },
   /** Seconds between a working chunk's heartbeats, and after how many seconds without one it is reclaimed. */
   get heartbeatSeconds() { return Number(process.env.STORMLEDGER_HEARTBEAT_SECONDS ?? 0) || 2 },
+  /**
+   * Object storage for uploaded files. With no STORMLEDGER_S3_BUCKET, files go to the local S3 fake
+   * (s3rver on loopback, files under .data/s3/) that `npm start` and the tests start.
+   */
+  get objects() {
+    const real = Boolean(process.env.STORMLEDGER_S3_BUCKET)
+    const fakePort = Number(process.env.STORMLEDGER_S3_FAKE_PORT ?? 4569)
+    return {
+      fake: !real,
+      fakePort,
+      bucket: process.env.STORMLEDGER_S3_BUCKET || 'stormledger-files',
+      region: process.env.STORMLEDGER_S3_REGION || process.env.AWS_REGION || 'us-east-1',
+      endpoint: real ? (process.env.STORMLEDGER_S3_ENDPOINT || undefined) : `http://127.0.0.1:${fakePort}`,
+      /** Path-style addressing (bucket in the path) for S3-compatible stores other than AWS. */
+      /** Milliseconds to wait for the store before a request answers 503. */
+      timeoutMs: Number(process.env.STORMLEDGER_S3_TIMEOUT_MS ?? 0) || 15_000,
+      forcePathStyle: real ? flag('STORMLEDGER_S3_PATH_STYLE', Boolean(process.env.STORMLEDGER_S3_ENDPOINT)) : true,
+    }
+  },
   get staleAfterSeconds() { return Number(process.env.STORMLEDGER_STALE_AFTER_SECONDS ?? 0) || 20 },
 }

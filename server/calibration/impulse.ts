@@ -10,6 +10,7 @@ import type { Member } from '../utils/auth'
 import { recordAudit } from '../utils/audit'
 import { badRequest } from '../utils/errors'
 import { sha256 } from './lightning'
+import { forgetCalibrationContent, storeCalibrationContent } from './files'
 
 export async function runImpulseCalibration(member: Member, event: H3Event, input: ImpulseCalibrationInput) {
   let series: ImpulseApplication[] = input.series
@@ -32,15 +33,20 @@ export async function runImpulseCalibration(member: Member, event: H3Event, inpu
     badRequest(`Neither method can use this series. Up-and-down: ${results.upAndDownProblem} Maximum likelihood: ${results.likelihoodProblem}`)
   }
   const inputs = { ...input, series, source: input.source ? { fileName: input.source.fileName } : null }
+  // The file goes to object storage first: a failed put leaves no row; a failed transaction removes the object.
+  const content = await storeCalibrationContent(member.organisationId, gzipSync(text))
   return useDb().transaction(async (tx) => {
     const [file] = await tx.insert(calibrationFiles).values({
       organisationId: member.organisationId, kind: 'impulse', fileName, byteSize: Buffer.byteLength(text), rowCount: series.length, sha256: sha256(text),
-      contentGzip: gzipSync(text), summary: { applications: series.length, sparks: series.filter(a => a.spark).length, entered: !input.source }, uploadedBy: member.user.id,
+      ...content, summary: { applications: series.length, sparks: series.filter(a => a.spark).length, entered: !input.source }, uploadedBy: member.user.id,
     }).returning({ id: calibrationFiles.id })
     const [row] = await tx.insert(calibrations).values({
       organisationId: member.organisationId, kind: 'impulse', title: input.title, fileId: file!.id, inputs, results: { ...results, file: { id: file!.id, name: fileName, sha256: sha256(text), rows: series.length } }, createdBy: member.user.id,
     }).returning()
     await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'create', entity: 'calibration', entityId: row!.id, after: { kind: 'impulse', title: input.title, componentClass: input.componentClass, fileId: file!.id, upAndDownU50Kv: results.upAndDown?.u50Kv ?? null, likelihoodU50Kv: results.likelihood?.u50Kv ?? null, sigma: results.likelihood?.sigma ?? null, equivalenceFactor: input.equivalenceFactor } }, { tx, event })
     return row!
+  }).catch(async (error: unknown) => {
+    await forgetCalibrationContent(content.contentKey)
+    throw error
   })
 }

@@ -14,19 +14,25 @@ import { recordAudit } from '../utils/audit'
 import { badRequest, notFound } from '../utils/errors'
 import { collectNearSites, GROUPING_MARGIN_KM, ingestLightningFile, type LightningSummary } from './lightning-files'
 import { findSites } from './sites'
+import { calibrationContent, forgetCalibrationContent, storeCalibrationContent } from './files'
 
 export async function storeLightningFile(member: Member, event: H3Event, fileName: string, body: AsyncIterable<Buffer>) {
   const result = await ingestLightningFile(body)
   if (!result.ok) {
     throw createError({ statusCode: 400, statusMessage: result.message, data: { rowErrors: result.rowErrors, errorCount: result.errorCount, rows: result.rows } })
   }
+  // The file goes to object storage first: a failed put leaves no row; a failed transaction removes the object.
+  const content = await storeCalibrationContent(member.organisationId, result.gzip)
   return useDb().transaction(async (tx) => {
     const [file] = await tx.insert(calibrationFiles).values({
       organisationId: member.organisationId, kind: 'lightning', fileName, byteSize: result.bytes, rowCount: result.summary.rows,
-      sha256: result.sha256, contentGzip: result.gzip, summary: result.summary, uploadedBy: member.user.id,
+      sha256: result.sha256, ...content, summary: result.summary, uploadedBy: member.user.id,
     }).returning({ id: calibrationFiles.id, fileName: calibrationFiles.fileName, rowCount: calibrationFiles.rowCount, byteSize: calibrationFiles.byteSize, sha256: calibrationFiles.sha256, createdAt: calibrationFiles.createdAt })
     await recordAudit({ organisationId: member.organisationId, userId: member.user.id, action: 'upload', entity: 'calibration_file', entityId: file!.id, after: { kind: 'lightning', fileName, rows: result.summary.rows, bytes: result.bytes, sha256: result.sha256 } }, { tx, event })
     return { ...file!, summary: result.summary }
+  }).catch(async (error: unknown) => {
+    await forgetCalibrationContent(content.contentKey)
+    throw error
   })
 }
 
@@ -50,7 +56,7 @@ export async function runLightningCalibration(member: Member, event: H3Event, in
   const periodYears = input.periodYears ?? summary.spanYears
   if (!(periodYears > 0)) badRequest('The records cover no time span; enter the record period in years.')
 
-  const { perSite, leftOutForLocationError } = await collectNearSites(file.contentGzip, sites, {
+  const { perSite, leftOutForLocationError } = await collectNearSites(await calibrationContent(file), sites, {
     radiusKm: input.radiusKm, marginKm: input.recordsAre === 'strokes' ? GROUPING_MARGIN_KM : 0, maxLocationErrorKm: input.maxLocationErrorKm,
   })
   const options = { radiusKm: input.radiusKm, periodYears, detectionEfficiency: input.detectionEfficiency, thresholdKa: input.thresholdKa, recordsAre: input.recordsAre }

@@ -49,7 +49,7 @@ export async function listLightningFiles(organisationId: string) {
 }
 
 export async function findSourceFile(organisationId: string, calibrationId: string) {
-  const [row] = await useDb().select({ fileName: calibrationFiles.fileName, content: calibrationFiles.contentGzip })
+  const [row] = await useDb().select({ fileName: calibrationFiles.fileName, contentKey: calibrationFiles.contentKey, contentSha256: calibrationFiles.contentSha256, contentGzip: calibrationFiles.contentGzip })
     .from(calibrations)
     .innerJoin(calibrationFiles, eq(calibrationFiles.id, calibrations.fileId))
     .where(and(eq(calibrations.id, calibrationId), eq(calibrations.organisationId, organisationId)))

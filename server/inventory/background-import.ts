@@ -16,6 +16,7 @@ import { AppError } from '../utils/errors'
 import { appLink, queueMail } from '../utils/mail'
 import { applyImport, planImport, type ImportSummary } from './import'
 import { parseOnThread } from './parse-pool'
+import { importFileBytes } from './files'
 
 /** Files with more rows than this are committed by a background job (STORMLEDGER_IMPORT_BACKGROUND_ROWS, default 2,000). */
 export function backgroundImportRows(): number {
@@ -71,7 +72,7 @@ export async function runBackgroundImport(importId: string): Promise<void> {
   const store = () => db.update(inventoryImports).set({ progress: { ...progress } }).where(and(eq(inventoryImports.id, importId), eq(inventoryImports.status, 'committing')))
   await store()
 
-  const parsed = await parseOnThread({ data: record.fileData, fileName: record.fileName })
+  const parsed = await parseOnThread({ data: await importFileBytes(record), fileName: record.fileName })
   if (!parsed.ok) return failBackgroundImport(importId, parsed.message)
   const plan = await planImport(db, record.organisationId, parsed.file)
   progress.rowsChecked = total

@@ -7,6 +7,7 @@ import { inventoryImports, portfolios } from '../db/schema'
 import { applyImport, planImport, type ImportPlan, type ImportSummary } from './import'
 import { backgroundImportRows, queueBackgroundCommit, rowsToWrite } from './background-import'
 import { parseOnThread } from './parse-pool'
+import { forgetImportFile, importFileBytes, storeImportFile } from './files'
 import type { Member } from '../utils/auth'
 import { conflict, fail, notFound } from '../utils/errors'
 import { recordAudit } from '../utils/audit'
@@ -23,17 +24,23 @@ async function planFor(organisationId: string, data: Buffer, fileName: string): 
 /** Reads an upload and stores the preview (counts, row errors, original bytes). */
 export async function previewUpload(event: H3Event, member: Member, upload: { fileName: string, contentType: string, data: Buffer }) {
   const plan = await planFor(member.organisationId, upload.data, upload.fileName)
+  // The file goes to object storage first: a failed put leaves no row; a failed insert removes the object.
+  const stored = await storeImportFile(member.organisationId, upload.data, upload.contentType)
   const [record] = await useDb().insert(inventoryImports).values({
     organisationId: member.organisationId,
     uploadedBy: member.user.id,
     fileName: upload.fileName,
     contentType: upload.contentType,
-    sizeBytes: upload.data.length,
-    fileData: upload.data,
+    sizeBytes: stored.sizeBytes,
+    fileKey: stored.key,
+    fileSha256: stored.sha256,
     status: 'previewed',
     summary: plan.summary,
     errors: plan.errors.slice(0, MAX_STORED_ERRORS),
-  }).returning({ id: inventoryImports.id, createdAt: inventoryImports.createdAt })
+  }).returning({ id: inventoryImports.id, createdAt: inventoryImports.createdAt }).catch(async (error: unknown) => {
+    await forgetImportFile(stored.key)
+    throw error
+  })
   return { id: record!.id, fileName: upload.fileName, status: 'previewed' as const, summary: plan.summary, errors: plan.errors.slice(0, MAX_STORED_ERRORS), createdAt: record!.createdAt }
 }
 
@@ -57,7 +64,7 @@ export async function commitImport(event: H3Event, member: Member, importId: str
     if (!record) notFound('Import')
     if (record.status === 'committed') conflict('This import was committed already.')
     if (record.status === 'committing') conflict('This import is being committed in the background; its page shows the progress.')
-    const plan = await planFor(member.organisationId, record.fileData, record.fileName)
+    const plan = await planFor(member.organisationId, await importFileBytes(record), record.fileName)
     if (plan.errors.length > 0) {
       // Row errors (sheet, row, column → message) are the import's own payload, shown as the preview shows them.
       throw createError({ statusCode: 400, statusMessage: `The file has ${plan.errors.length} error${plan.errors.length === 1 ? '' : 's'}; nothing was imported. Fix them and upload the file again.`, data: { errors: plan.errors.slice(0, MAX_STORED_ERRORS) } })

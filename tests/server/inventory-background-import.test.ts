@@ -6,6 +6,10 @@ import { Client, createMember, createOrganisation } from '../support/accounts'
 import { testPool } from '../support/db'
 import { siteRow, upload } from '../support/inventory'
 import { mailTo, waitForMail } from '../support/mail'
+import { useTestObjectStore } from '../support/objects'
+import { getObjectBuffer, putObject } from '../../server/storage/objects'
+
+useTestObjectStore()
 
 const pool = testPool()
 afterAll(() => pool.end())
@@ -100,7 +104,10 @@ describe('background import', () => {
     const csv = sitesCsv('LATE', 2100)
     const preview = await (await upload(analyst, csv, 'late.csv', 'text/csv')).json() as { id: string }
     // Between preview and commit the stored file changes: site LATE-8 becomes a second LATE-7, which the re-read refuses.
-    await pool.query(`UPDATE inventory_imports SET file_data = convert_to(replace(convert_from(file_data, 'UTF8'), 'LATE-8,', 'LATE-7,'), 'UTF8') WHERE id = $1`, [preview.id])
+    const { rows: [file] } = await pool.query(`SELECT file_key FROM inventory_imports WHERE id = $1`, [preview.id])
+    const changed = (await getObjectBuffer(file.file_key)).toString('utf8').replace('LATE-8,', 'LATE-7,')
+    const stored = await putObject(file.file_key, Buffer.from(changed, 'utf8'), 'text/csv')
+    await pool.query(`UPDATE inventory_imports SET file_sha256 = $2 WHERE id = $1`, [preview.id, stored.sha256])
     const before = await siteCount(org)
     expect((await analyst.post(`/api/inventory/imports/${preview.id}/commit`, {})).status).toBe(202)
     const done = await waitFor(analyst, preview.id, s => s.status !== 'committing')

@@ -52,8 +52,8 @@ describe('import of a good file', () => {
     const res = await commit(first.id)
     expect(res.status).toBe(200)
     expect(await inventoryCounts(pool, org)).toEqual({ sites: 2, tanks: 3, components: 6, structures: 1 }) // 3 tanks × 2 component classes
-    const stored = await pool.query(`SELECT size_bytes, octet_length(file_data) AS n, status FROM inventory_imports WHERE id = $1`, [first.id])
-    expect(stored.rows[0]).toEqual({ size_bytes: file.length, n: file.length, status: 'committed' }) // the original file is kept (issue, item 3)
+    const stored = await pool.query(`SELECT size_bytes, file_key IS NOT NULL AS kept, status FROM inventory_imports WHERE id = $1`, [first.id])
+    expect(stored.rows[0]).toEqual({ size_bytes: file.length, kept: true, status: 'committed' }) // the original file is kept, in object storage (issue, item 3; issue #19 point 5)
     expect((await commit(first.id)).status).toBe(409) // a committed import cannot be committed twice (common practice)
 
     const { rows: before } = await pool.query(`SELECT max(updated_at) AS t FROM tanks`)

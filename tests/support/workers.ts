@@ -15,7 +15,7 @@ export function spawnWorker(extraEnv: Record<string, string> = {}): WorkerProces
     cwd: root,
     // The same settings as the test app's own worker (database, mail fake, chunk expiry), so an extra
     // worker that picks up any job — e-mail included — does what the app's worker would.
-    env: { ...appEnv({ dbName: inject('dbName'), port: inject('appPort'), mailPort: inject('mailPort'), seedDemo: false }), ...extraEnv },
+    env: { ...appEnv({ dbName: inject('dbName'), port: inject('appPort'), mailPort: inject('mailPort'), s3Port: inject('s3Port'), seedDemo: false }), ...extraEnv },
     stdio: ['ignore', 'pipe', 'pipe'],
     // Its own process group, so that a hard kill reaches the Node process that tsx starts as its child.
     detached: true,

@@ -20,7 +20,12 @@ export const calibrationFiles = pgTable('calibration_files', {
   byteSize: bigint('byte_size', { mode: 'number' }).notNull(),
   rowCount: integer('row_count').notNull(),
   sha256: text('sha256').notNull(),
-  contentGzip: bytea('content_gzip').notNull(),
+  /** Legacy copy of the gzip-compressed file; emptied once scripts/move-files-to-storage.ts has moved it to object storage. */
+  contentGzip: bytea('content_gzip'),
+  /** The gzip-compressed file in object storage (server/storage/objects.ts): key, size and SHA-256 of the stored object. */
+  contentKey: text('content_key'),
+  contentSize: bigint('content_size', { mode: 'number' }),
+  contentSha256: text('content_sha256'),
   /** Lightning: record counts by type and polarity, time span, extent. Impulse: applications and sparks. */
   summary: jsonb('summary').notNull(),
   uploadedBy: uuid('uploaded_by').references(() => users.id, { onDelete: 'set null' }),
@@ -30,6 +35,7 @@ export const calibrationFiles = pgTable('calibration_files', {
   index('calibration_files_uploaded_by_idx').on(t.uploadedBy),
   check('calibration_files_name_present', sql`length(${t.fileName}) > 0`),
   check('calibration_files_sizes', sql`${t.byteSize} >= 0 AND ${t.rowCount} >= 0`),
+  check('calibration_files_content_kept', sql`${t.contentKey} IS NOT NULL OR ${t.contentGzip} IS NOT NULL`),
 ])
 
 /** One calibration: its inputs, its results (with methods and intervals) and the file it came from. */

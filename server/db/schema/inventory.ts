@@ -172,8 +172,11 @@ export const inventoryImports = pgTable('inventory_imports', {
   fileName: text('file_name').notNull(),
   contentType: text('content_type').notNull(),
   sizeBytes: integer('size_bytes').notNull(),
-  /** The original file, kept as uploaded. */
-  fileData: bytea('file_data').notNull(),
+  /** Legacy copy of the original file; emptied once scripts/move-files-to-storage.ts has moved it to object storage. */
+  fileData: bytea('file_data'),
+  /** The original file, kept as uploaded, in object storage (server/storage/objects.ts): its key and SHA-256. */
+  fileKey: text('file_key'),
+  fileSha256: text('file_sha256'),
   status: importStatus('status').notNull(),
   /** Counts per sheet: new, changed, unchanged, errors. */
   summary: jsonb('summary').notNull(),
@@ -196,6 +199,7 @@ export const inventoryImports = pgTable('inventory_imports', {
   index('inventory_imports_uploaded_by_idx').on(t.uploadedBy),
   index('inventory_imports_status_idx').on(t.status),
   check('inventory_imports_size', sql`${t.sizeBytes} >= 0`),
+  check('inventory_imports_file_kept', sql`${t.fileKey} IS NOT NULL OR ${t.fileData} IS NOT NULL`),
 ])
 
 export type TankMaterial = (typeof tankMaterial.enumValues)[number]
