@@ -46,7 +46,8 @@ describe('confirmations and messages', () => {
     await saveScreenshot(page, 'confirm-role-change')
     await page.keyboard.press('Escape')
     await dialog.waitFor({ state: 'hidden' })
-    expect(await select.inputValue()).toBe('viewer')
+    // The browser closes the dialog on Escape at once; the page then puts the picker back.
+    await expect.poll(() => select.inputValue()).toBe('viewer')
     const roleNow = async () => (await pool.query(`SELECT role FROM memberships WHERE id = $1`, [member.membershipId])).rows[0].role
     expect(await roleNow()).toBe('viewer')
 
