@@ -6,6 +6,7 @@ import type { FlashDensityFormula } from './flash-density'
 import { SPEED_OF_LIGHT_M_PER_S } from './induction'
 import type { DamageRatio, FireSpread, LossComponent } from './loss'
 import { fieldMessages, type FieldMessages } from '../schemas/messages'
+import { assumptionUncertaintySchema, emptyUncertainty, type AssumptionUncertainty } from './uncertainty-types'
 
 export type CurrentLawKind = 'power_law' | 'lognormal' | 'empirical'
 export type SparkContents = Exclude<Contents, 'chemical'>
@@ -40,7 +41,13 @@ export interface AssumptionSet {
   fireSpread: FireSpread
   flashDensityFormula: FlashDensityFormula
   cutoffProbability: number
+  /** Simulated years with storm clustering: storms' Gaussian spread σ (km) and mean ground flashes per storm. */
+  stormClustering: StormClustering
+  /** How far each numeric assumption is known (used by runs with assumption draws only). */
+  uncertainty: AssumptionUncertainty
 }
+
+export interface StormClustering { spreadKm: number; flashesPerStorm: number }
 
 export type DeepPartial<T> = T extends readonly unknown[] ? T : T extends object ? { [K in keyof T]?: DeepPartial<T[K]> } : T
 export type AssumptionSetInput = DeepPartial<AssumptionSet>
@@ -84,6 +91,8 @@ export const defaultAssumptions: Readonly<AssumptionSet> = Object.freeze({
   fireSpread: { model: 'exponential', probabilityAtContact: 0.25, decayLengthM: 5, maxDistanceM: 25 },
   flashDensityFormula: 'anderson',
   cutoffProbability: 1e-6,
+  stormClustering: { spreadKm: 10, flashesPerStorm: 1000 },
+  uncertainty: emptyUncertainty(),
 } satisfies AssumptionSet)
 
 export interface AssumptionParameterMeta {
@@ -167,6 +176,8 @@ export const assumptionParameterMeta: readonly AssumptionParameterMeta[] = Objec
   { key: 'fireSpread.decayLengthM', label: 'Fire spread: decay length (L)', unit: 'm', default: 5, kind: 'number', source: `${ILLUSTRATIVE}; ${SPREAD_BASIS}` },
   { key: 'fireSpread.maxDistanceM', label: 'Fire spread: largest shell-to-shell distance reached (dmax)', unit: 'm', default: 25, kind: 'number', source: `${ILLUSTRATIVE}; ${SPREAD_BASIS}` },
   { key: 'flashDensityFormula', label: 'Flash density from thunderstorm days', unit: '', default: 'anderson', kind: 'choice', options: ['anderson', 'iec'], source: 'Anderson 0.04·Td^1.25 (IEEE Std 1410, 1243); IEC 62305-2 0.1·Td' },
+  { key: 'stormClustering.spreadKm', label: 'Storm clustering: spread of a storm\'s flashes around its centre (σ)', unit: 'km', default: 10, kind: 'number', source: `${ILLUSTRATIVE}; from memory: a thunderstorm system lays its ground flashes over a few tens of kilometres; lightning-location calibration replaces it` },
+  { key: 'stormClustering.flashesPerStorm', label: 'Storm clustering: mean ground flashes per storm', unit: 'flashes', default: 1000, kind: 'number', source: `${ILLUSTRATIVE}; from memory: large storm systems produce of the order of a thousand ground flashes; lightning-location calibration replaces it` },
   { key: 'cutoffProbability', label: 'Negligible sparking probability (sets the simulated radius)', unit: 'probability', default: 1e-6, kind: 'number', source: 'Methodology §1' },
 ] satisfies AssumptionParameterMeta[])
 
@@ -235,6 +246,11 @@ export const assumptionSetSchema = z.strictObject({
   }),
   flashDensityFormula: z.enum(['anderson', 'iec'], { error: "flashDensityFormula must be 'anderson' or 'iec'" }),
   cutoffProbability: num('cutoff probability').refine((v) => v > 0 && v <= 1e-3, { error: 'cutoff probability must lie in (0, 0.001]' }),
+  stormClustering: z.strictObject({
+    spreadKm: num('storm spread σ').refine((v) => v >= 0.5 && v <= 200, { error: 'storm spread σ must lie between 0.5 and 200 km' }),
+    flashesPerStorm: num('mean ground flashes per storm').refine((v) => v >= 1 && v <= 1e6, { error: 'mean ground flashes per storm must lie between 1 and 1,000,000' }),
+  }),
+  uncertainty: assumptionUncertaintySchema,
 }).superRefine((a, ctx) => {
   if (a.currentMinKa >= a.currentMaxKa) {
     ctx.addIssue({ code: 'custom', path: ['currentMinKa'], message: `Imin (${a.currentMinKa} kA) must be below Imax (${a.currentMaxKa} kA)` })

@@ -23,7 +23,9 @@ describe('defaults and metadata', () => {
   it('metadata lists every parameter once, with its default, unit and source', () => {
     const keys = assumptionParameterMeta.map((m) => m.key)
     expect(new Set(keys).size).toBe(keys.length)
-    expect([...keys].sort()).toEqual(leafKeys(defaultAssumptions).sort())
+    // `uncertainty` describes parameters (how far each is known); it is not a parameter itself.
+    const { uncertainty: _uncertainty, ...parameters } = defaultAssumptions
+    expect([...keys].sort()).toEqual(leafKeys(parameters).sort())
     for (const m of assumptionParameterMeta) {
       const value = m.key.split('.').reduce<unknown>((o, k) => (o as Record<string, unknown>)[k], defaultAssumptions)
       expect(m.default).toEqual(value)
