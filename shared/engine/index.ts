@@ -64,5 +64,5 @@ export {
 export type { SiteClustering, ClusteringFrame, StormFlash } from './storm-clusters'
 export {
   clusteredCandidateYears, clusteringFrame, siteClustering, projectKm, stormFlashes, stormKernel, stormIntensity, yearFactorVariance,
-  REACH_SIGMAS, KERNEL_MASS,
+  sitesIndependentYears, REACH_SIGMAS, KERNEL_MASS,
 } from './storm-clusters'

@@ -324,3 +324,28 @@ export function stormFlashes(c: Pick<SiteClustering, 'maxFlashDensity' | 'spread
   }
   return flashes
 }
+
+// ── the portfolio without the shared storms ─────────────────────────────────────────────────────
+
+/**
+ * "Sites independent": a site's event years sent through a random permutation of the simulated
+ * years of its own (seeded by run and site). Each site keeps its year-loss table exactly — the same
+ * losses in the same years' groups, only relabelled — while the shared year index no longer lines up
+ * storms across sites, so a portfolio added up from these years is the portfolio of independent
+ * sites with the same marginals. Only the event years' images are drawn (a sparse Fisher–Yates
+ * shuffle, Durstenfeld 1964): a uniformly random injection of the distinct event years into the years.
+ */
+export function sitesIndependentYears(eventYear: ArrayLike<number>, years: number, runSeed: number | string, siteId: string): Int32Array {
+  const distinct = [...new Set(Array.from(eventYear))].sort((a, b) => a - b)
+  if (distinct.length > years) throw new RangeError('more distinct event years than simulated years')
+  const rand = createStream(runSeed, siteId, 'sites-independent')
+  const swapped = new Map<number, number>()
+  const image = new Map<number, number>()
+  for (let i = 0; i < distinct.length; i++) {
+    const j = i + Math.min(years - i - 1, Math.floor(rand() * (years - i)))
+    const atJ = swapped.get(j) ?? j
+    swapped.set(j, swapped.get(i) ?? i)
+    image.set(distinct[i]!, atJ)
+  }
+  return Int32Array.from(eventYear, (y) => image.get(y)!)
+}
