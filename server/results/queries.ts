@@ -106,7 +106,8 @@ export function accumulationOf(summary: StoredYearSummary | null) {
     averageAnnualLoss: s.averageAnnualLoss,
     returnPeriods: [100, 250].map(T => {
       const row = s.aggregate.find(r => r.returnPeriodYears === T)
-      return { returnPeriodYears: T, loss: row?.loss ?? null, tailValueAtRisk: row?.tailValueAtRisk ?? null }
+      const interval = s.intervals?.aggregate.find(r => r.returnPeriodYears === T)
+      return { returnPeriodYears: T, loss: row?.loss ?? null, lo: interval?.lo ?? null, hi: interval?.hi ?? null, tailValueAtRisk: row?.tailValueAtRisk ?? null }
     }),
   })
   return { joint: pick(summary), sitesIndependent: pick(summary.sitesIndependent) }
