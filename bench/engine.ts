@@ -3,7 +3,7 @@
 // (wall time beside them), so a busy machine inflates them less.
 import {
   createStream, evaluateFlashes, isolatedTankQuadrature, parseAssumptions, prepareSite, rollUpYears, siteRadius,
-  simulateSiteFrequency, simulateSiteYears,
+  simulateSiteFrequency, simulateSiteYears, clusteringFrame, siteClustering,
 } from '../shared/engine/index'
 import type { AssumptionSet, PreparedSite, SiteInput } from '../shared/engine/index'
 import { crudeTankEstimate, estimateTank } from '../shared/engine/frequency'
@@ -92,7 +92,7 @@ function frequencyBench(sites: SiteInput[], a: AssumptionSet): void {
   line('  tanks at the target (or negligible)', `${tanks.length - notConverged} of ${tanks.length}; worst RSE of a figure ≥ 1e-5 /yr: ${(worst * 100).toFixed(2)} %`)
 }
 
-function yearBench(sites: SiteInput[], a: AssumptionSet): void {
+function yearBench(sites: SiteInput[], a: AssumptionSet): number {
   const run = timed(() => sites.map((s) => simulateSiteYears(s, a, { runSeed: 1, years: YEARS })))
   const roll = timed(() => rollUpYears(run.value))
   const candidates = run.value.reduce((n, r) => n + r.candidates, 0)
@@ -100,6 +100,28 @@ function yearBench(sites: SiteInput[], a: AssumptionSet): void {
   line(`year mode: ${YEARS} years × ${sites.length} sites`, `${fmt(run.cpu)} s CPU (${fmt(run.wall)} s wall), target ≤ 60 s`)
   line('  candidate flashes / loss events', `${(candidates / 1e6).toFixed(1)} M / ${(events / 1e6).toFixed(2)} M`)
   line('  portfolio roll-up', `${fmt(roll.cpu, 2)} s; AAL ${roll.value.summary.averageAnnualLoss.toFixed(0)}, 1-in-100 aggregate ${(roll.value.summary.aggregate.find((r) => r.returnPeriodYears === 100)?.loss ?? 0).toFixed(0)}`)
+  return run.cpu
+}
+
+/**
+ * Storm clustering (issue 21): the same years with flashes in storms. The generated sites get places
+ * of their own (invented): 25 fields of 40 sites, each field 30 km across, fields over 600 km × 600 km.
+ * Target: at most twice the independent simulated-years run.
+ */
+function clusteredYearBench(sites: SiteInput[], a: AssumptionSet, independentCpu: number): void {
+  const rand = createStream('bench', 'clusters', 'places')
+  const places = sites.map((s, k) => {
+    const field = Math.floor(k / 40)
+    const fieldLat = 28 + 5.4 * ((field % 5) + 0.5) / 5, fieldLon = -104 + 6.2 * (Math.floor(field / 5) + 0.5) / 5
+    return { latitudeDeg: fieldLat + (rand() - 0.5) * 0.27, longitudeDeg: fieldLon + (rand() - 0.5) * 0.31, flashDensity: s.flashDensity }
+  })
+  const frame = clusteringFrame(places)
+  const run = timed(() => sites.map((s, k) => simulateSiteYears(s, a, { runSeed: 1, years: YEARS, clustering: siteClustering(frame, a.stormClustering, places[k]!.latitudeDeg, places[k]!.longitudeDeg) })))
+  const roll = rollUpYears(run.value)
+  const candidates = run.value.reduce((n, r) => n + r.candidates, 0)
+  line(`year mode with storm clustering (σ ${a.stormClustering.spreadKm} km, ${a.stormClustering.flashesPerStorm} flashes/storm)`, `${fmt(run.cpu)} s CPU (${fmt(run.wall)} s wall), ${fmt(run.cpu / independentCpu, 2)}× the independent run (target ≤ 2×)`)
+  line('  candidate flashes; λmax', `${(candidates / 1e6).toFixed(1)} M; ${frame.maxFlashDensity.toFixed(2)} flashes/km²/yr`)
+  line('  portfolio with clustering', `AAL ${roll.summary.averageAnnualLoss.toFixed(0)}, 1-in-100 aggregate ${(roll.summary.aggregate.find((r) => r.returnPeriodYears === 100)?.loss ?? 0).toFixed(0)}, 1-in-250 ${(roll.summary.aggregate.find((r) => r.returnPeriodYears === 250)?.loss ?? 0).toFixed(0)}`)
 }
 
 function quadratureBench(sites: SiteInput[], a: AssumptionSet): void {
@@ -113,11 +135,15 @@ function main(): void {
   const a = parseAssumptions({})
   const sites = generatePortfolio(SITES, TANKS)
   console.log(`Stormledger engine benchmark — ${sites.length} generated sites, ${sites.reduce((n, s) => n + s.tanks.length, 0)} tanks, default assumptions, Node ${process.version}`)
-  kernelBench(sites.map((s) => prepareSite(s, a)))
-  quadratureBench(sites, a)
-  varianceReductionBench(sites.slice(0, 40), a)
-  frequencyBench(sites, a)
-  yearBench(sites, a)
+  // `--years-only`: the simulated-years figures alone (independent and with storm clustering).
+  if (!process.argv.includes('--years-only')) {
+    kernelBench(sites.map((s) => prepareSite(s, a)))
+    quadratureBench(sites, a)
+    varianceReductionBench(sites.slice(0, 40), a)
+    frequencyBench(sites, a)
+  }
+  const independentCpu = yearBench(sites, a)
+  clusteredYearBench(sites, a, independentCpu)
 }
 
 main()

@@ -1,5 +1,5 @@
 // npm run simulate -- --portfolio <name or id> [--organisation <name>] [--assumptions <name@version>]
-//                     [--mode frequency|year] [--seed N] [--years N] [--target-rse X] [--negligible-rate X] [--chunk-size N] [--wait]
+//                     [--mode frequency|year] [--seed N] [--years N] [--target-rse X] [--negligible-rate X] [--chunk-size N] [--storm-clustering] [--wait]
 // Enqueues a run (workers must be running: npm start or npm run worker); with --wait, shows a
 // progress bar and prints the headline results.
 import { parseArgs } from 'node:util'
@@ -20,7 +20,7 @@ const { values } = parseArgs({
   options: {
     'portfolio': { type: 'string' }, 'organisation': { type: 'string' }, 'assumptions': { type: 'string' },
     'mode': { type: 'string', default: 'frequency' }, 'seed': { type: 'string' }, 'years': { type: 'string' },
-    'target-rse': { type: 'string' }, 'negligible-rate': { type: 'string' }, 'chunk-size': { type: 'string' }, 'wait': { type: 'boolean', default: false },
+    'target-rse': { type: 'string' }, 'negligible-rate': { type: 'string' }, 'chunk-size': { type: 'string' }, 'storm-clustering': { type: 'boolean', default: false }, 'wait': { type: 'boolean', default: false },
   },
   strict: true,
 })
@@ -66,6 +66,7 @@ async function main() {
     targetRse: values['target-rse'] === undefined ? undefined : Number(values['target-rse']),
     negligibleRatePerYear: values['negligible-rate'] === undefined ? undefined : Number(values['negligible-rate']),
     chunkSize: values['chunk-size'] === undefined ? undefined : Number(values['chunk-size']),
+    stormClustering: values['storm-clustering'],
   })
   if (!input.success) throw new UsageError(input.error.issues.map(i => `${String(i.path[0])}: ${i.message}`).join('\n'))
   const run = await startRun(input.data, { userId: null, organisationId: portfolio.organisationId })

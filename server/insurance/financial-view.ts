@@ -16,6 +16,7 @@ import { tankSeverity } from '../../shared/engine/ignition'
 import type { TankInput } from '../../shared/engine/types'
 import { findTermsVersion, layersOf, runTermsVersionId, termsBySite } from './terms-store'
 import { AppError } from '../utils/errors'
+import { sitesIndependentYears } from '../../shared/engine/storm-clusters'
 
 export interface FinancialInputs {
   run: typeof runs.$inferSelect
@@ -118,6 +119,23 @@ function present(f: PortfolioFinancials, inputs: FinancialInputs) {
   }
 }
 
+/** Each site's events with its years shuffled (shared/engine/storm-clusters.ts): same site losses, sites independent. */
+function sitesIndependent(sites: FinancialInputs['sites'], years: number, seed: number): FinancialInputs['sites'] {
+  return sites.map(s => ({ ...s, events: { ...s.events, year: sitesIndependentYears(s.events.year, years, seed, s.siteId) } }))
+}
+
+/** What the comparison shows of the sites-independent portfolio: its curves, tail, layers and premium. */
+function accumulationView(f: PortfolioFinancials) {
+  return {
+    groundUp: compactSummary(f.summaries.groundUp),
+    insured: compactSummary(f.summaries.insured),
+    insuredLossAtTail: f.insuredLossAtTail,
+    insuredTailValueAtRisk: f.insuredTailValueAtRisk,
+    premium: f.premium,
+    layers: f.layers.map(l => ({ name: l.layer.name, premium: l.premium, summary: compactSummary(l.summary) })),
+  }
+}
+
 /** Applies the what-if deductibles to one site (or every site) of the inputs. */
 function withChangedDeductibles(sites: FinancialInputs['sites'], q: FinancialQuery) {
   return sites.map((s) => {
@@ -141,9 +159,11 @@ export function financialView(inputs: FinancialInputs, q: FinancialQuery) {
   if (q.whatIfSiteId && !inputs.sites.some(s => s.siteId === q.whatIfSiteId)) throw new AppError(400, 'The what-if site is not part of this run.')
   let baseline: PortfolioFinancials
   let changed: PortfolioFinancials | null = null
+  let independent: PortfolioFinancials | null = null
   try {
     baseline = computeFinancials(inputs.sites, inputs.run.years, pricing, 50, inputs.layers)
     if (hasWhatIf(q)) changed = computeFinancials(withChangedDeductibles(inputs.sites, q), inputs.run.years, pricing, 50, inputs.layers)
+    if (inputs.run.stormClustering) independent = computeFinancials(sitesIndependent(inputs.sites, inputs.run.years, inputs.run.seed), inputs.run.years, pricing, 0, inputs.layers)
   } catch (error) {
     if (error instanceof RangeError) throw new AppError(400, `${error.message[0]!.toUpperCase()}${error.message.slice(1)}.`)
     throw error
@@ -159,6 +179,9 @@ export function financialView(inputs: FinancialInputs, q: FinancialQuery) {
     sitesWithoutTerms: inputs.sites.filter(s => s.terms === null).length,
     pricing,
     ...present(baseline, inputs),
+    /** Storm clustering: the same terms and pricing on the sites' year-loss tables with each site's years shuffled (sites independent). */
+    sitesIndependent: independent && accumulationView(independent),
+    stormClustering: run.stormClustering,
     whatIf: changed && {
       change: { siteId: q.whatIfSiteId ?? null, occurrenceDeductible: q.whatIfOccurrenceDeductible ?? null, aggregateDeductible: q.whatIfAggregateDeductible ?? null },
       ...present(changed, inputs),

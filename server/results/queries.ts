@@ -25,6 +25,11 @@ export interface StoredYearSummary {
   intervals?: { aggregate: IntervalRow[], occurrence: IntervalRow[] }
   /** Engine 2 and later: the same summary for property damage and for business interruption. */
   split?: { propertyDamage: StoredYearSummary, businessInterruption: StoredYearSummary }
+  /**
+   * Runs with storm clustering: the portfolio of the same site year-loss tables with each site's
+   * years shuffled — the sites independent — beside the joint one, to show the accumulation.
+   */
+  sitesIndependent?: StoredYearSummary
 }
 
 export const TAIL_RETURN_PERIOD = 250
@@ -78,16 +83,34 @@ export function lossSplit(p: { expectedAnnualLossPd?: number | null, expectedAnn
 
 export function exceedanceSeries(summary: StoredYearSummary | null, name: string) {
   if (!summary) return []
+  if (summary.sitesIndependent) name = `${name}, storm clustering`
   const series = [
     { name, kind: 'aggregate' as const, points: summary.aggregateCurve.map(p => ({ returnPeriodYears: p.returnPeriodYears, loss: p.loss })) },
     { name, kind: 'occurrence' as const, points: summary.occurrenceCurve.map(p => ({ returnPeriodYears: p.returnPeriodYears, loss: p.loss })) },
   ]
+  if (summary.sitesIndependent) {
+    series.push({ name: `${name}, sites independent (each site's years shuffled)`, kind: 'aggregate' as const, points: summary.sitesIndependent.aggregateCurve.map(p => ({ returnPeriodYears: p.returnPeriodYears, loss: p.loss })) })
+  }
   if (summary.split) {
     for (const [label, part] of [['property damage', summary.split.propertyDamage], ['business interruption', summary.split.businessInterruption]] as const) {
       series.push({ name: `${name}, ${label}`, kind: 'aggregate' as const, points: part.aggregateCurve.map(p => ({ returnPeriodYears: p.returnPeriodYears, loss: p.loss })) })
     }
   }
   return series
+}
+
+/** A clustered run's tail with the sites' storms shared (joint) and with the sites independent, at 100 and 250 years. */
+export function accumulationOf(summary: StoredYearSummary | null) {
+  if (!summary?.sitesIndependent) return null
+  const pick = (s: StoredYearSummary) => ({
+    averageAnnualLoss: s.averageAnnualLoss,
+    returnPeriods: [100, 250].map(T => {
+      const row = s.aggregate.find(r => r.returnPeriodYears === T)
+      const interval = s.intervals?.aggregate.find(r => r.returnPeriodYears === T)
+      return { returnPeriodYears: T, loss: row?.loss ?? null, lo: interval?.lo ?? null, hi: interval?.hi ?? null, tailValueAtRisk: row?.tailValueAtRisk ?? null }
+    }),
+  })
+  return { joint: pick(summary), sitesIndependent: pick(summary.sitesIndependent) }
 }
 
 export interface LossSplit { propertyDamage: number, businessInterruption: number }

@@ -25,9 +25,9 @@ const MONEY = NUMBER_FORMATS.money
 const ONLY_TOTAL = 'total only (run made before the split)'
 
 /** The run's mode in the product's words. */
-export function modeLabel(run: Pick<typeof runs.$inferSelect, 'mode' | 'years' | 'targetRse' | 'negligibleRatePerYear'>): string {
+export function modeLabel(run: Pick<typeof runs.$inferSelect, 'mode' | 'years' | 'targetRse' | 'negligibleRatePerYear'> & { stormClustering?: boolean }): string {
   return run.mode === 'year'
-    ? `simulated years (${run.years} per site)`
+    ? `simulated years (${run.years} per site; storm clustering ${run.stormClustering ? 'on: nearby sites share storms' : 'off: sites independent'})`
     : `frequency (target relative standard error ${run.targetRse}; negligible-rate rule ${run.negligibleRatePerYear > 0 ? `${run.negligibleRatePerYear} /yr` : 'off'})`
 }
 

@@ -4,6 +4,7 @@ import type { AssumptionSet } from '../../shared/engine/assumptions'
 import { parseSite } from '../../shared/engine/site-schema'
 import { simulateSiteFrequency } from '../../shared/engine/frequency'
 import { simulateSiteYears } from '../../shared/engine/years'
+import type { SiteClustering } from '../../shared/engine/storm-clusters'
 import { countEstimate, normalEstimate } from '../../shared/engine/statistics'
 import type { CountEstimate, SiteInput } from '../../shared/engine/types'
 import { figureFromCount, figureFromEstimate, type ResultFigure } from '../../shared/results/figure'
@@ -26,6 +27,8 @@ export interface SiteTask {
   /** Frequency mode: the negligible-rate rule (/yr). */
   negligibleRatePerYear: number
   years: number
+  /** Year mode with storm clustering: the site's place in the run's storm field; null otherwise. */
+  clustering: SiteClustering | null
 }
 
 /**
@@ -128,7 +131,7 @@ function computeFrequency(task: SiteTask, prepared: SitePreparation): SiteFigure
 }
 
 function computeYears(task: SiteTask, prepared: SitePreparation): SiteFigures {
-  const r = simulateSiteYears(task.site, task.assumptions, { runSeed: task.runSeed, years: task.years }, prepared)
+  const r = simulateSiteYears(task.site, task.assumptions, { runSeed: task.runSeed, years: task.years, clustering: task.clustering }, prepared)
   const Y = r.years
   const sumCounts = (pick: (t: typeof r.tanks[number]) => CountEstimate) => r.tanks.reduce((n, t) => n + pick(t).count, 0)
   // Counts over the same simulated years add; the site's interval is Garwood's on the sum, as for tanks.

@@ -6,6 +6,7 @@ import { useDb, type Database } from '../db'
 import { runPortfolioResults, runs, runSiteResults } from '../db/schema'
 import type { Figure } from './compute'
 import { decodeEvents } from './events-codec'
+import { sitesIndependentYears } from '../../shared/engine/storm-clusters'
 import { sumCounts } from './figures'
 import { figureValues, selectFigures, toFigures } from '../results/figures'
 import type { StoredYearSummary } from '../results/queries'
@@ -34,12 +35,14 @@ const EVENT_PAGE = 200
  * built from every site's events in site-id order — read a page of sites at a time, so a run of
  * thousands of sites never holds every site's events at once (the order, and so every sum, is the same).
  */
-async function portfolioYearTables(tx: Database, runId: string, siteIds: string[], years: number) {
+async function portfolioYearTables(tx: Database, runId: string, siteIds: string[], years: number, independentSeed: number | null) {
   const total = emptyTable(years)
   const pd = emptyTable(years)
   const bi = emptyTable(years)
+  // With storm clustering: the same site losses with each site's years shuffled (sites independent).
+  const independent = independentSeed === null ? null : emptyTable(years)
   for (let i = 0; i < siteIds.length; i += EVENT_PAGE) {
-    const page = await tx.select({ events: runSiteResults.events }).from(runSiteResults)
+    const page = await tx.select({ siteId: runSiteResults.siteId, events: runSiteResults.events }).from(runSiteResults)
       .where(and(eq(runSiteResults.runId, runId), inArray(runSiteResults.siteId, siteIds.slice(i, i + EVENT_PAGE))))
       .orderBy(asc(runSiteResults.siteId))
     for (const row of page) {
@@ -52,9 +55,13 @@ async function portfolioYearTables(tx: Database, runId: string, siteIds: string[
         addEvent(pd, y, p)
         addEvent(bi, y, e.loss[k]! - p)
       }
+      if (independent) {
+        const shuffled = sitesIndependentYears(e.year, years, independentSeed!, row.siteId)
+        for (let k = 0; k < shuffled.length; k++) addEvent(independent, shuffled[k]!, e.loss[k]!)
+      }
     }
   }
-  return { total, pd, bi }
+  return { total, pd, bi, independent }
 }
 
 /** Adds 95 % intervals to the losses at the standard return periods (aggregate and occurrence). */
@@ -89,7 +96,7 @@ export async function finaliseRun(runId: string): Promise<boolean> {
         yearSummary: null,
       }
     } else {
-      const tables = await portfolioYearTables(tx, runId, rows.map(r => r.siteId), run.years)
+      const tables = await portfolioYearTables(tx, runId, rows.map(r => r.siteId), run.years, run.stormClustering ? run.seed : null)
       const table = tables.total
       const summary = {
         ...withIntervals(summariseYearLosses(table.yearLosses, table.yearMaxEventLoss), table),
@@ -97,6 +104,7 @@ export async function finaliseRun(runId: string): Promise<boolean> {
           propertyDamage: withIntervals(summariseYearLosses(tables.pd.yearLosses, tables.pd.yearMaxEventLoss), tables.pd),
           businessInterruption: withIntervals(summariseYearLosses(tables.bi.yearLosses, tables.bi.yearMaxEventLoss), tables.bi),
         },
+        ...(tables.independent ? { sitesIndependent: withIntervals(summariseYearLosses(tables.independent.yearLosses, tables.independent.yearMaxEventLoss), tables.independent) } : {}),
       }
       values = {
         pd: summary.split.propertyDamage.averageAnnualLoss, bi: summary.split.businessInterruption.averageAnnualLoss,

@@ -6,6 +6,7 @@ import { asc, eq, inArray } from 'drizzle-orm'
 import type { AssumptionSet } from '../../shared/engine/assumptions'
 import { flashDensityFromThunderstormDays } from '../../shared/engine/flash-density'
 import type { SiteInput } from '../../shared/engine/types'
+import type { ClusteringFrame } from '../../shared/engine/storm-clusters'
 import type { Database } from '../db'
 import { portfolioSites, sites, siteStructures, tankComponents, tanks } from '../db/schema'
 
@@ -103,6 +104,8 @@ export interface HashInputs {
   /** Absent for runs hashed before the rule was an option (they used the default, 1e-5 /yr). */
   negligibleRatePerYear?: number
   years: number
+  /** Storm clustering's frame; absent when off (so runs hashed before the option keep their hash). */
+  stormClustering?: ClusteringFrame
   sites: SiteInput[]
 }
 

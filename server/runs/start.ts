@@ -15,6 +15,7 @@ import { AppError } from '../utils/errors'
 import { recordRunTerms } from '../insurance/terms-store'
 import { readablePortfolio } from '../inventory/portfolio-access'
 import { inputHash, loadPortfolioSites } from './snapshot'
+import { clusteringFrame } from '../../shared/engine/storm-clusters'
 
 export type StartRun = z.output<typeof startRunSchema>
 
@@ -33,7 +34,13 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
   if (snapshot.length === 0) throw new AppError(400, `Portfolio "${portfolio.name}" has no sites to simulate. Add sites first.`)
 
   const seed = input.seed ?? randomInt(0, 2 ** 31)
+  // Storm clustering belongs to simulated years; its frame is fixed here, from every site of the run.
+  const stormClustering = input.mode === 'year' && input.stormClustering
+  const frame = stormClustering
+    ? clusteringFrame(snapshot.map(s => ({ latitudeDeg: s.facts.latitudeDeg, longitudeDeg: s.facts.longitudeDeg, flashDensity: s.site.flashDensity })))
+    : null
   const hash = inputHash({
+    ...(stormClustering ? { stormClustering: frame! } : {}),
     engineVersion: ENGINE_VERSION, assumptions, mode: input.mode, seed, targetRse: input.targetRse,
     maxSamplesPerTank: input.maxSamplesPerTank, negligibleRatePerYear: input.negligibleRatePerYear, years: input.years, sites: snapshot.map(s => s.site),
   })
@@ -47,7 +54,7 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
       name: input.name?.trim() || defaultRunName(portfolio.name, new Date()),
       assumptionVersionId: version.v.id, mode: input.mode, seed,
       targetRse: input.targetRse, maxSamplesPerTank: input.maxSamplesPerTank, negligibleRatePerYear: input.negligibleRatePerYear,
-      years: input.years, chunkSize: input.chunkSize,
+      years: input.years, chunkSize: input.chunkSize, stormClustering, clusteringFrame: frame,
       sitesTotal: snapshot.length, tanksTotal: snapshot.reduce((n, s) => n + s.site.tanks.length, 0), chunksTotal: chunks.length,
       inputHash: hash, engineVersion: ENGINE_VERSION, requestedBy: by.userId, retryOf: options.retryOf ?? null,
     }).returning()
@@ -66,7 +73,7 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
     })), { db: bossDb })
     await recordAudit({
       organisationId: by.organisationId, userId: by.userId, action: 'create', entity: 'run', entityId: runId,
-      after: { portfolio: portfolio.name, assumptions: `${version.setName} v${version.v.version}`, mode: input.mode, seed, sites: snapshot.length },
+      after: { portfolio: portfolio.name, assumptions: `${version.setName} v${version.v.version}`, mode: input.mode, seed, sites: snapshot.length, ...(stormClustering ? { stormClustering: true } : {}) },
     }, { tx, via: by.via })
     return run!
   })

@@ -2,6 +2,7 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm'
 import { hostname } from 'node:os'
 import { parseAssumptions } from '../../shared/engine/assumptions'
+import { siteClustering } from '../../shared/engine/storm-clusters'
 import { useDb } from '../db'
 import { assumptionSetVersions, runChunks, runs, runSiteSnapshots } from '../db/schema'
 import type { SiteComputation } from './compute'
@@ -47,6 +48,9 @@ export async function workChunk(runId: string, chunkIndex: number, queuedAt: num
       const computation = await computeOnThread({
         site, assumptions, mode: run.mode, runSeed: run.seed,
         targetRse: run.targetRse, maxSamplesPerTank: run.maxSamplesPerTank, negligibleRatePerYear: run.negligibleRatePerYear, years: run.years,
+        clustering: run.mode === 'year' && run.stormClustering && run.clusteringFrame
+          ? siteClustering(run.clusteringFrame, assumptions.stormClustering, snap.facts.latitudeDeg, snap.facts.longitudeDeg)
+          : null,
       })
       return { computation, submittedAt, resolvedAt: epochMs() }
     } catch (error) {

@@ -61,3 +61,8 @@ export type { StormFlashAtSite, FlashTankProbabilities, StormQuadrature, StormTa
 export {
   flashTankProbabilities, stormSiteOutcome, stormReachM, atLeastOnce, eastNorthOf, degreesFor, DEFAULT_STORM_QUADRATURE,
 } from './storm'
+export type { SiteClustering, ClusteringFrame, StormFlash } from './storm-clusters'
+export {
+  clusteredCandidateYears, clusteringFrame, siteClustering, projectKm, stormFlashes, stormKernel, stormIntensity, yearFactorVariance,
+  sitesIndependentYears, REACH_SIGMAS, KERNEL_MASS,
+} from './storm-clusters'

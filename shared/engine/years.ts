@@ -18,8 +18,14 @@ import { countEstimate } from './statistics'
 import { siteRadius } from './reach'
 import { flashesPerYearOnDisc } from './flash-density'
 import { summariseYearLosses } from './exceedance'
+import { clusteredCandidateYears, type SiteClustering } from './storm-clusters'
 
-export interface YearOptions { runSeed: number | string; years: number }
+export interface YearOptions {
+  runSeed: number | string
+  years: number
+  /** Storm clustering (storm-clusters.ts): the site's place in the run's storm field; absent or null: independent years. */
+  clustering?: SiteClustering | null
+}
 
 /**
  * Loss events (flashes that ignited at least one tank), sorted by year. Event e involves the tanks
@@ -109,14 +115,18 @@ export function simulateSiteYears(site: SiteInput, assumptions: AssumptionSet, o
   const burning = new Uint8Array(ps.nTanks)
   // Conditional on their total, the candidates of a Poisson process over Y years fall in
   // independent uniform years: one Poisson draw instead of one per year.
-  const candidates = poissonDraw(env.totalRate * years, rand)
+  // With storm clustering the candidates' years come from the run's storms (their own stream);
+  // without, the draws below are exactly those of independent years.
+  if (options.clustering && site.flashDensity > options.clustering.maxFlashDensity * (1 + 1e-12)) throw new RangeError(`storm clustering: the site's Ng (${site.flashDensity} flashes/km²/yr) is above the run's λmax (${options.clustering.maxFlashDensity})`)
+  const clusteredYears = options.clustering ? clusteredCandidateYears(options.clustering, env.totalRate, years, options.runSeed, createStream(options.runSeed, site.id, 'years/storms')) : null
+  const candidates = clusteredYears ? clusteredYears.length : poissonDraw(env.totalRate * years, rand)
   const flash: Candidate = { x: 0, y: 0, currentKa: 0, lnI: 0, cell: 0 }
   const probability = new Float64Array(ps.nTanks)
   const none = new Float64Array(ps.nTanks + 1)
   const hit = new Uint8Array(ps.nTanks)
   let eventFlashes = 0
   for (let c = 0; c < candidates; c++) {
-    const year = Math.min(years - 1, Math.floor(rand() * years))
+    const year = clusteredYears ? clusteredYears[c]! : Math.min(years - 1, Math.floor(rand() * years))
     drawCandidate(ps, env, rand, flash)
     const attached = attachFlash(ps, flash.x, flash.y, strikeRadius(ps, flash.lnI))
     const anyEvent = 1 - siteEventProbabilities(ps, flash.currentKa, flash.lnI, attached, flash.x, flash.y, probability)

@@ -113,6 +113,48 @@ describe('runs', () => {
     expect(pa.year_summary.aggregate.map((r: { returnPeriodYears: number }) => r.returnPeriodYears)).toEqual([10, 25, 50, 100, 250, 500, 1000])
   }, 240_000)
 
+  it('storm clustering: bit-identical site year-loss tables for chunk sizes 25, 5 and 1 and for 1 vs 3 workers, with the sites-independent curve', async () => {
+    const body = { mode: 'year', years: 2000, seed: 21, stormClustering: true }
+    const whole = await start(analyst, { ...body, chunkSize: 25 })
+    expect((await waitForRun(analyst, whole)).state).toBe('succeeded')
+    const extra: WorkerProcess[] = [spawnWorker(), spawnWorker()]
+    await Promise.all(extra.map(w => w.ready))
+    let fives: string, ones: string
+    try {
+      fives = await start(analyst, { ...body, chunkSize: 5 })
+      ones = await start(analyst, { ...body, chunkSize: 1 })
+      for (const id of [fives, ones]) {
+        const ended = await waitForRun(analyst, id)
+        expect(ended.state, ended.errorMessage ?? '').toBe('succeeded')
+      }
+      const { rows } = await pool.query(`SELECT count(DISTINCT worker)::int AS n FROM run_chunks WHERE run_id = $1`, [ones])
+      expect(rows[0].n).toBeGreaterThan(1)
+    } finally {
+      await Promise.all(extra.map(w => stopWorker(w)))
+    }
+    const siteTables = async (id: string) => (await pool.query(`SELECT site_id, events, year_summary FROM run_site_results WHERE run_id = $1 ORDER BY site_id`, [id])).rows
+    const reference = await siteTables(whole)
+    expect(reference).toHaveLength(12)
+    expect(await siteTables(fives)).toEqual(reference)
+    expect(await siteTables(ones)).toEqual(reference)
+    const pw = await portfolioResult(whole)
+    expect(await portfolioResult(fives)).toEqual(pw)
+    expect(await portfolioResult(ones)).toEqual(pw)
+    // The joint table and the sites-independent one hold the same losses (each site's years only relabelled).
+    expect(pw.year_summary.sitesIndependent.averageAnnualLoss).toBeCloseTo(pw.year_summary.averageAnnualLoss, 6)
+    const run = await (await analyst.get(`/api/runs/${whole}`)).json()
+    expect(run.stormClustering).toBe(true)
+    expect(run.clusteringFrame.maxFlashDensity).toBeGreaterThan(2)
+    const dashboard = await (await analyst.get(`/api/runs/${whole}/dashboard`)).json()
+    expect(dashboard.accumulation.sitesIndependent.returnPeriods.map((r: { returnPeriodYears: number }) => r.returnPeriodYears)).toEqual([100, 250])
+    expect(dashboard.exceedance.some((s: { name: string }) => /sites independent/.test(s.name))).toBe(true)
+    // Clustering changes which years the losses fall in: the same seed without it gives other tables.
+    const plain = await start(analyst, { ...body, stormClustering: false, chunkSize: 25 })
+    expect((await waitForRun(analyst, plain)).state).toBe('succeeded')
+    expect(await siteTables(plain)).not.toEqual(reference)
+    expect((await portfolioResult(plain)).year_summary.sitesIndependent).toBeUndefined()
+  }, 300_000)
+
   it('a worker killed in the middle of a run: its chunk is reclaimed by heartbeat, the run ends within twice the clean time plus 30 s, with the same results', async () => {
     const options = { seed: 99, chunkSize: 1, targetRse: 0.05, maxSamplesPerTank: 60000 }
     const cleanStart = Date.now()

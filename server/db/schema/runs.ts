@@ -7,6 +7,7 @@ import type { ChunkTiming } from '../../runs/timing'
 import type { StoredYearSummary } from '../../results/queries'
 import type { SiteFacts } from '../../runs/snapshot'
 import type { SiteInput } from '../../../shared/engine/types'
+import type { ClusteringFrame } from '../../../shared/engine/storm-clusters'
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
 
@@ -66,6 +67,13 @@ export const runs = pgTable('runs', {
   negligibleRatePerYear: doublePrecision('negligible_rate_per_year').notNull().default(1e-5),
   /** Year mode: simulated years per site. */
   years: integer('years').notNull(),
+  /** Year mode: storm clustering (shared/engine/storm-clusters.ts) — flashes arrive in storms shared by nearby sites. Off for runs before the option. */
+  stormClustering: boolean('storm_clustering').notNull().default(false),
+  /**
+   * With storm clustering: the run's plane (reference point of the projection) and λmax, the largest
+   * Ng of its sites (flashes/km²/yr), fixed at start so every chunk sees the same storms. Null when off.
+   */
+  clusteringFrame: jsonb('clustering_frame').$type<ClusteringFrame>(),
   chunkSize: integer('chunk_size').notNull(),
   state: runState('state').notNull().default('queued'),
   sitesTotal: integer('sites_total').notNull(),

@@ -1,6 +1,6 @@
 // GET /api/runs/:id/dashboard — headline figures with intervals, exceedance curves and what drives
 // the total (top sites and tanks by expected fires) for a succeeded run.
-import { exceedanceSeries, findSucceededRun, headline, portfolioResult, topSites, topTanks } from '~~/server/results/queries'
+import { accumulationOf, exceedanceSeries, findSucceededRun, headline, portfolioResult, topSites, topTanks } from '~~/server/results/queries'
 import { cachedJson } from '~~/server/results/cache'
 
 const DRIVERS = 10
@@ -17,10 +17,11 @@ export default defineEventHandler(async (event) => {
     if (!portfolio) notFound('Results of this run')
     const summary = portfolio.yearSummary
     return {
-      run: { id: run.id, mode: run.mode, seed: run.seed, portfolioId: run.portfolioId, portfolioName: run.portfolioName, finishedAt: run.finishedAt, years: run.years, engineVersion: run.engineVersion, inputHash: run.inputHash },
+      run: { id: run.id, mode: run.mode, stormClustering: run.stormClustering, seed: run.seed, portfolioId: run.portfolioId, portfolioName: run.portfolioName, finishedAt: run.finishedAt, years: run.years, engineVersion: run.engineVersion, inputHash: run.inputHash },
       currency: member.currency,
       headline: headline(portfolio.figures, portfolio.lossSplit, summary),
       exceedance: exceedanceSeries(summary, run.portfolioName),
+      accumulation: accumulationOf(summary),
       returnPeriods: summary ? { aggregate: summary.aggregate, occurrence: summary.occurrence, intervals: summary.intervals ?? null } : null,
       drivers: {
         metric: 'ignitionPerYear',
