@@ -110,7 +110,12 @@ export function accumulation(years: number, sites: readonly AccumulationSiteEven
     }
   }
   const members = new Map<number, number[]>()
-  candidates.forEach((i) => { const root = find(i); members.set(root, [...(members.get(root) ?? []), i]) })
+  for (const i of candidates) {
+    const root = find(i)
+    const list = members.get(root)
+    if (list) list.push(i)
+    else members.set(root, [i])
+  }
   const groups: AccumulationGroup[] = []
   const groupSets = [...members.values()].filter(m => m.length >= 2)
   const counts = new Uint16Array(worst.length)

@@ -32,7 +32,7 @@ const latitude = (label: string) => z.number({ error: `Enter the ${label} latitu
 const longitude = (label: string) => z.number({ error: `Enter the ${label} longitude in decimal degrees.` }).min(-180, 'A longitude lies between −180° and 180°.').max(180, 'A longitude lies between −180° and 180°.')
 
 /** Bootstrap refits one calibration may ask for (each is a full simulation and fit of the records' windows). */
-export const STORM_CLUSTERING_MAX_BOOTSTRAP = 199
+export const STORM_CLUSTERING_MAX_BOOTSTRAP = 99
 
 export const stormClusteringCalibrationSchema = z.object({
   title,
