@@ -132,6 +132,20 @@ describe('fitStormClustering', () => {
     expect(full.intervals).toBeNull()
   })
 
+  it('recovers σ and μ when the number of storms varies from day to day', () => {
+    // 40 days of 1 storm and 40 days of 10 (σ = 8 km, μ = 150): μ from Σn(n − 1) = μ Σλ (κ|W|² + I)
+    // holds for any mix of storm counts when storms are alike (docs/methodology.md). Stated tolerance:
+    // 15 % on σ, 20 % on μ (common practice; the seed spread is about 5 %).
+    const a = thomasRecords({ box, days: 40, stormsPerDay: 1, flashesPerStorm: 150, spreadKm: 8, seed: 11 })
+    const b = thomasRecords({ box, days: 40, stormsPerDay: 10, flashesPerStorm: 150, spreadKm: 8, seed: 12 }).map(r => ({ ...r, timeMs: r.timeMs + 40 * 86400e3 }))
+    const result = fitStormClustering([...a, ...b], { box, windowHours: 24, detectionEfficiency: 1, periodYears: 80 / 365.25, bootstrap: 0, seed: 'mix' })
+    expect(Math.abs(result.spreadKm / 8 - 1)).toBeLessThan(0.15)
+    expect(Math.abs(result.flashesPerStorm / 150 - 1)).toBeLessThan(0.2)
+    // Storms per year: 5.5 a day on average over the box (flash density ÷ μ), within the same 20 %.
+    const { window } = projectBox(box)
+    expect(Math.abs(result.kappaPerKm2PerYear / (5.5 * 365.25 / (window.width * window.height)) - 1)).toBeLessThan(0.2)
+  })
+
   it('refuses records with no window of two flashes', () => {
     const records = [{ timeMs: 0, latDeg: 31, lonDeg: -95 }, { timeMs: 86400e3 * 2, latDeg: 31, lonDeg: -95 }]
     expect(() => fitStormClustering(records, { box, windowHours: 24, detectionEfficiency: 1, periodYears: 1, bootstrap: 0, seed: 'a' })).toThrow(/No time window/)
