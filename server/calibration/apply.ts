@@ -5,6 +5,7 @@ import { and, eq } from 'drizzle-orm'
 import { EngineInputError } from '../../shared/engine/assumptions'
 import { roundSignificant } from '../../shared/format'
 import type { LognormalFit, ProbitFit, UpAndDownResult } from '../../shared/calibration'
+import type { ClusterFitResult } from '../../shared/calibration/cluster-fit'
 import { addVersion, findVersion, mergeParameters } from '../assumptions/versions'
 import { useDb } from '../db'
 import { calibrationApplications, calibrations } from '../db/schema'
@@ -28,7 +29,7 @@ interface FileRef { id: string, name: string, sha256: string, rows: number }
 export interface ParameterProvenance {
   source: 'calibration'
   calibrationId: string
-  calibrationKind: 'lightning' | 'impulse'
+  calibrationKind: 'lightning' | 'impulse' | 'storm_clustering'
   title: string
   method: string
   file: FileRef
@@ -61,6 +62,16 @@ function lightningChanges(c: Calibration): Change[] {
   ]
 }
 
+function stormClusteringChanges(c: Calibration): Change[] {
+  const r = c.results as ClusterFitResult
+  const detail = `${r.flashes} ground flashes in ${r.windows.used} windows of ${r.window.hours} h over ${Math.round(r.window.widthKm)} × ${Math.round(r.window.heightKm)} km; edge correction: ${r.edgeCorrection}`
+  const interval = (i: { lo: number, hi: number, confidence: number } | undefined) => (i ? { lo: roundSignificant(i.lo, 4), hi: roundSignificant(i.hi, 4), confidence: i.confidence } : null)
+  return [
+    { key: 'stormClustering.spreadKm', value: roundSignificant(r.spreadKm, 4), unit: 'km', method: r.method, interval: interval(r.intervals?.spreadKm), detail },
+    { key: 'stormClustering.flashesPerStorm', value: roundSignificant(r.flashesPerStorm, 4), unit: 'flashes', method: r.method, interval: interval(r.intervals?.flashesPerStorm), detail },
+  ]
+}
+
 function impulseChanges(c: Calibration, method: 'likelihood' | 'up_and_down'): Change[] {
   const inputs = c.inputs as { componentClass: string, configuration: string, equivalenceFactor: number, equivalenceBasis: string }
   const results = c.results as { upAndDown: UpAndDownResult | null, upAndDownProblem: string | null, likelihood: ProbitFit | null, likelihoodProblem: string | null }
@@ -89,7 +100,7 @@ export async function applyToAssumptions(member: Member, event: H3Event, calibra
   const calibration = await findCalibration(member.organisationId, calibrationId)
   const base = await findVersion(member.organisationId, input.assumptionVersionId)
   if (!base) notFound('Assumption-set version')
-  const changes = calibration.kind === 'lightning' ? lightningChanges(calibration) : impulseChanges(calibration, input.method)
+  const changes = calibration.kind === 'lightning' ? lightningChanges(calibration) : calibration.kind === 'storm_clustering' ? stormClusteringChanges(calibration) : impulseChanges(calibration, input.method)
   const file = (calibration.results as { file: FileRef }).file
   const appliedAt = new Date().toISOString()
   const parameterChanges: Record<string, unknown> = {}

@@ -28,6 +28,30 @@ export const lightningCalibrationSchema = z.object({
 })
 export type LightningCalibrationInput = z.infer<typeof lightningCalibrationSchema>
 
+const latitude = (label: string) => z.number({ error: `Enter the ${label} latitude in decimal degrees.` }).min(-90, 'A latitude lies between −90° and 90°.').max(90, 'A latitude lies between −90° and 90°.')
+const longitude = (label: string) => z.number({ error: `Enter the ${label} longitude in decimal degrees.` }).min(-180, 'A longitude lies between −180° and 180°.').max(180, 'A longitude lies between −180° and 180°.')
+
+/** Bootstrap refits one calibration may ask for (each is a full simulation and fit of the records' windows). */
+export const STORM_CLUSTERING_MAX_BOOTSTRAP = 99
+
+export const stormClusteringCalibrationSchema = z.object({
+  title,
+  fileId: uuid('an uploaded file'),
+  /** The region (a latitude/longitude box); empty = the records' extent. */
+  box: z.object({ minLat: latitude('southern'), maxLat: latitude('northern'), minLon: longitude('western'), maxLon: longitude('eastern') })
+    .refine(b => b.maxLat > b.minLat, { message: 'The northern edge must lie north of the southern edge.', path: ['maxLat'] })
+    .refine(b => b.maxLon > b.minLon, { message: 'The eastern edge must lie east of the western edge (boxes across the 180° meridian are not supported).', path: ['maxLon'] })
+    .refine(b => b.maxLat - b.minLat <= 15 && b.maxLon - b.minLon <= 15, { message: 'Keep the region within 15° on each side (the local projection holds for regions up to about 1,500 km).', path: ['maxLon'] })
+    .nullable().default(null),
+  windowHours: z.number({ error: 'Enter the length of a time window in hours.' }).min(1, 'A time window is at least 1 hour.').max(168, 'A time window is at most 168 hours (a week).').default(24),
+  detectionEfficiency: z.number({ error: 'Enter the detection efficiency.' }).gt(0, 'The detection efficiency must be above 0.').max(1, 'The detection efficiency is a share: at most 1 (100 %).'),
+  recordsAre: z.enum(['flashes', 'strokes'], { error: 'Say whether the records are flashes or strokes.' }),
+  periodYears: z.number().gt(0, 'The record period must be above 0 years.').max(200).nullable().default(null),
+  maxLocationErrorKm: z.number().gt(0, 'The location error limit must be above 0 km.').max(100).nullable().default(null),
+  bootstrap: z.number({ error: 'Enter the number of bootstrap refits.' }).int('The number of bootstrap refits is a whole number.').min(19, 'At least 19 bootstrap refits are needed for a 95 % percentile interval.').max(STORM_CLUSTERING_MAX_BOOTSTRAP, `At most ${STORM_CLUSTERING_MAX_BOOTSTRAP} bootstrap refits per calibration.`).default(49),
+})
+export type StormClusteringCalibrationInput = z.infer<typeof stormClusteringCalibrationSchema>
+
 export const impulseApplicationSchema = z.object({
   levelKv: z.number({ error: 'Each level must be a voltage in kV.' }).gt(0, 'Each level must be above 0 kV.').max(10_000, 'Each level must be at most 10 000 kV.'),
   spark: z.boolean({ error: 'Say for each application whether it sparked.' }),

@@ -115,6 +115,7 @@ function address(route: string): string | null {
     '/results/[runId]/sites/[siteId]': `/results/${ids.run}/sites/${ids.site}`,
     '/runs/[id]': `/runs/${ids.run}`,
     '/runs/[id]/financial': `/runs/${ids.run}/financial`,
+    '/runs/[id]/accumulation': `/runs/${ids.run}/accumulation`,
     '/sites/[id]': `/sites/${ids.site}`,
     '/sites/[id]/edit': `/sites/${ids.site}/edit`,
     '/sites/[id]/tanks/new': `/sites/${ids.site}/tanks/new`,

@@ -49,7 +49,7 @@ describe('pages under the Content Security Policy', () => {
     await g.page.goto(`${base}/what-if`, { waitUntil: 'networkidle' })
     await g.page.goto(`${base}/methodology`, { waitUntil: 'networkidle' })
     await signInPage(g.page, base, ADMIN, DEMO_PASSWORD)
-    for (const path of ['/overview', '/portfolios', '/sites', '/runs', '/assumptions', '/insurance', '/capital-plan', '/calibration', '/storms', '/admin/members', '/admin/mailbox', '/admin/audit']) {
+    for (const path of ['/overview', '/portfolios', '/sites', '/runs', '/assumptions', '/insurance', '/capital-plan', '/calibration', '/calibration/storm-clustering', '/storms', '/admin/members', '/admin/mailbox', '/admin/audit']) {
       const res = await g.page.goto(`${base}${path}`, { waitUntil: 'networkidle' })
       expect(res?.status(), path).toBe(200)
       await g.page.locator('h1').first().waitFor()

@@ -7,7 +7,7 @@ import { timestamps } from './columns'
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
 
-export const calibrationKind = pgEnum('calibration_kind', ['lightning', 'impulse'])
+export const calibrationKind = pgEnum('calibration_kind', ['lightning', 'impulse', 'storm_clustering'])
 export const calibrationTarget = pgEnum('calibration_target', ['assumption_version', 'site_flash_density'])
 
 /** A source file exactly as uploaded (or, for a series typed in, as written back to CSV), gzip-compressed. */

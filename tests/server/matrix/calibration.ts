@@ -16,6 +16,7 @@ export const rules: RouteRule[] = [
   { method: 'POST', file: 'server/api/calibrations/[id]/assumption-version.post.ts', path: '/api/calibrations/[id]/assumption-version', allowed: editors, params: { id: 'calibrationId' }, body: { assumptionVersionId: '00000000-0000-4000-8000-000000000000' } },
   { method: 'POST', file: 'server/api/calibrations/[id]/site-flash-densities.post.ts', path: '/api/calibrations/[id]/site-flash-densities', allowed: editors, params: { id: 'calibrationId' }, body: { siteIds: ['00000000-0000-4000-8000-000000000000'] } },
   { method: 'POST', file: 'server/api/calibrations/lightning.post.ts', path: '/api/calibrations/lightning', allowed: editors },
+  { method: 'POST', file: 'server/api/calibrations/storm-clustering.post.ts', path: '/api/calibrations/storm-clustering', allowed: editors },
   { method: 'POST', file: 'server/api/calibrations/impulse.post.ts', path: '/api/calibrations/impulse', allowed: editors },
   { method: 'GET', file: 'server/api/calibrations/sites.get.ts', path: '/api/calibrations/sites', allowed: editors },
   { method: 'GET', file: 'server/api/calibrations/lightning-files/index.get.ts', path: '/api/calibrations/lightning-files', allowed: editors },

@@ -41,6 +41,7 @@ export async function fixtures(pool: pg.Pool, organisationId: string): Promise<R
 rules.push(
   { method: 'GET', file: 'server/api/runs/latest.get.ts', path: '/api/runs/latest', allowed: [...everyone] },
   { method: 'GET', file: 'server/api/runs/[id]/dashboard.get.ts', path: '/api/runs/[id]/dashboard', allowed: [...everyone], params: { id: 'runId' } },
+  { method: 'GET', file: 'server/api/runs/[id]/accumulation.get.ts', path: '/api/runs/[id]/accumulation', allowed: [...everyone], params: { id: 'runId' } },
   { method: 'GET', file: 'server/api/runs/[id]/sites/index.get.ts', path: '/api/runs/[id]/sites', allowed: [...everyone], params: { id: 'runId' } },
   { method: 'GET', file: 'server/api/runs/[id]/sites/[siteId].get.ts', path: '/api/runs/[id]/sites/[siteId]', allowed: [...everyone], params: { id: 'runId', siteId: 'siteIdOfRun' } },
 )

@@ -1,0 +1,1 @@
+ALTER TYPE "public"."calibration_kind" ADD VALUE 'storm_clustering';
