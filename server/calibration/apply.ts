@@ -2,9 +2,11 @@
 // their provenance, or new ground flash densities on sites. One transaction each, audited.
 import type { H3Event } from 'h3'
 import { and, eq } from 'drizzle-orm'
-import { EngineInputError } from '../../shared/engine/assumptions'
+import { EngineInputError, parseAssumptions } from '../../shared/engine/assumptions'
+import { FLASH_DENSITY_FACTOR_PATH } from '../../shared/engine/uncertainty-ranges'
+import type { AssumptionCorrelation, AssumptionUncertainty, UncertainAssumption } from '../../shared/engine/uncertainty-types'
 import { roundSignificant } from '../../shared/format'
-import type { LognormalFit, ProbitFit, UpAndDownResult } from '../../shared/calibration'
+import { currentLawUncertainty, flashCountUncertainty, thresholdUncertainty, type LognormalFit, type ProbitFit, type UpAndDownResult } from '../../shared/calibration'
 import { addVersion, findVersion, mergeParameters } from '../assumptions/versions'
 import { useDb } from '../db'
 import { calibrationApplications, calibrations } from '../db/schema'
@@ -41,6 +43,68 @@ export interface ParameterProvenance {
 }
 
 interface Change { key: string, value: number | string, unit: string, method: string, interval: ParameterProvenance['interval'], detail: string }
+
+/** The uncertainty a calibration's estimates carry: entries (basis 'calibration') and their correlations. */
+interface CalibratedUncertainty { entries: UncertainAssumption[], correlations: AssumptionCorrelation[] }
+
+/** "calibration "Title" (id 1a2b3c4d, made 2026-12-03)": which calibration, and which one of that title. */
+function calibrationName(c: Calibration): string {
+  return `calibration "${c.title}" (id ${c.id.slice(0, 8)}, made ${new Date(c.createdAt).toISOString().slice(0, 10)})`
+}
+
+/**
+ * The set's uncertainty with the calibrated entries in place of any earlier ones for the same paths
+ * (and without the correlations that named those paths); the calibrated correlations added.
+ */
+export function withCalibratedUncertainty(current: AssumptionUncertainty, calibrated: CalibratedUncertainty): AssumptionUncertainty {
+  const replaced = new Set(calibrated.entries.map(e => e.path))
+  return {
+    entries: [...current.entries.filter(e => !replaced.has(e.path)), ...calibrated.entries],
+    correlations: [...current.correlations.filter(c => !replaced.has(c.a) && !replaced.has(c.b)), ...calibrated.correlations],
+  }
+}
+
+function lightningUncertainty(c: Calibration, changes: Change[]): CalibratedUncertainty {
+  const results = c.results as { pooled: { fit: LognormalFit | null }, sites: LightningSiteRow[] }
+  const fit = results.pooled.fit!
+  const median = changes.find(ch => ch.key === 'lognormalMedianKa')!.value as number
+  const beta = changes.find(ch => ch.key === 'lognormalBeta')!.value as number
+  const pair = currentLawUncertainty(fit, median, beta)
+  const from = calibrationName(c)
+  const entries: UncertainAssumption[] = [
+    { path: 'lognormalMedianKa', distribution: pair.first, basis: 'calibration', note: `From ${from}: maximum-likelihood fit of ${fit.n} first-stroke currents; log-normal with σ of ln(median) = standard error of μ from the inverse observed Fisher information` },
+    { path: 'lognormalBeta', distribution: pair.second, basis: 'calibration', note: `From ${from}: standard error of β from the inverse observed Fisher information of the same fit` },
+  ]
+  const count = results.sites.reduce((t, s) => t + s.flashDensity.flashCount, 0)
+  const flash = flashCountUncertainty(count)
+  if (flash) {
+    const pct = (x: number) => `${Number(x.toPrecision(3))}`
+    entries.push({
+      path: FLASH_DENSITY_FACTOR_PATH, distribution: flash.distribution, basis: 'calibration',
+      note: `From ${from}: ${count} flashes counted over ${results.sites.length} site${results.sites.length === 1 ? '' : 's'}; the log-normal matches the exact Poisson (Garwood 1936) 95 % interval × ${pct(flash.interval.lo)} to × ${pct(flash.interval.hi)}. Counting scatter only, common to all sites; applies where the sites' flash densities came from this calibration`,
+    })
+  }
+  return { entries, correlations: [{ a: 'lognormalMedianKa', b: 'lognormalBeta', rho: pair.rho }] }
+}
+
+function impulseUncertainty(c: Calibration, changes: Change[], method: 'likelihood' | 'up_and_down'): CalibratedUncertainty {
+  const results = c.results as { likelihood: ProbitFit | null }
+  const ml = results.likelihood
+  const sigmaChange = changes.find(ch => ch.key.endsWith('.sigma'))
+  const u50Change = changes.find(ch => ch.key.endsWith('.u50Kv'))
+  if (!ml || !sigmaChange || !u50Change) return { entries: [], correlations: [] }
+  const pair = thresholdUncertainty(ml, u50Change.value as number, sigmaChange.value as number)
+  const from = calibrationName(c)
+  const entries: UncertainAssumption[] = [
+    { path: sigmaChange.key, distribution: pair.second, basis: 'calibration', note: `From ${from}: maximum-likelihood σ with its standard error from the inverse observed Fisher information (normal, truncated to 0–3)` },
+  ]
+  // The up-and-down U50 comes from another estimator; only the likelihood U50 has the joint covariance.
+  if (method === 'likelihood') {
+    entries.unshift({ path: u50Change.key, distribution: pair.first, basis: 'calibration', note: `From ${from}: maximum-likelihood U50 (× the equivalence factor); log-normal with σ of ln U50 from the inverse observed Fisher information` })
+    return { entries, correlations: [{ a: u50Change.key, b: sigmaChange.key, rho: pair.rho }] }
+  }
+  return { entries, correlations: [] }
+}
 
 function setPath(target: Record<string, unknown>, key: string, value: unknown) {
   const parts = key.split('.')
@@ -90,6 +154,7 @@ export async function applyToAssumptions(member: Member, event: H3Event, calibra
   const base = await findVersion(member.organisationId, input.assumptionVersionId)
   if (!base) notFound('Assumption-set version')
   const changes = calibration.kind === 'lightning' ? lightningChanges(calibration) : impulseChanges(calibration, input.method)
+  const calibrated = calibration.kind === 'lightning' ? lightningUncertainty(calibration, changes) : impulseUncertainty(calibration, changes, input.method)
   const file = (calibration.results as { file: FileRef }).file
   const appliedAt = new Date().toISOString()
   const parameterChanges: Record<string, unknown> = {}
@@ -103,6 +168,9 @@ export async function applyToAssumptions(member: Member, event: H3Event, calibra
   }
   const note = input.note || `From calibration "${calibration.title}"`
   try {
+    // The base's uncertainty as it reads now (an old version gets the illustrative ranges of its
+    // default values), with the calibrated entries in place of earlier ones for the same paths.
+    parameterChanges.uncertainty = withCalibratedUncertainty(parseAssumptions(base.version.parameters).uncertainty, calibrated)
     return await useDb().transaction(async (tx) => {
       const version = await addVersion(tx, base.set.id, member.user.id, {
         parameters: mergeParameters(base.version.parameters, parameterChanges),
