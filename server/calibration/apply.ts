@@ -95,15 +95,14 @@ function impulseUncertainty(c: Calibration, changes: Change[], method: 'likeliho
   if (!ml || !sigmaChange || !u50Change) return { entries: [], correlations: [] }
   const pair = thresholdUncertainty(ml, u50Change.value as number, sigmaChange.value as number)
   const from = calibrationName(c)
+  const u50Note = method === 'likelihood'
+    ? `From ${from}: maximum-likelihood U50 (× the equivalence factor); log-normal with σ of ln U50 from the inverse observed Fisher information`
+    : `From ${from}: up-and-down U50 (× the equivalence factor); the up-and-down mean has no standard error of its own, so σ of ln U50 is the maximum-likelihood one of the same series`
   const entries: UncertainAssumption[] = [
+    { path: u50Change.key, distribution: pair.first, basis: 'calibration', note: u50Note },
     { path: sigmaChange.key, distribution: pair.second, basis: 'calibration', note: `From ${from}: maximum-likelihood σ with its standard error from the inverse observed Fisher information (normal, truncated to 0–3)` },
   ]
-  // The up-and-down U50 comes from another estimator; only the likelihood U50 has the joint covariance.
-  if (method === 'likelihood') {
-    entries.unshift({ path: u50Change.key, distribution: pair.first, basis: 'calibration', note: `From ${from}: maximum-likelihood U50 (× the equivalence factor); log-normal with σ of ln U50 from the inverse observed Fisher information` })
-    return { entries, correlations: [{ a: u50Change.key, b: sigmaChange.key, rho: pair.rho }] }
-  }
-  return { entries, correlations: [] }
+  return { entries, correlations: [{ a: u50Change.key, b: sigmaChange.key, rho: pair.rho }] }
 }
 
 function setPath(target: Record<string, unknown>, key: string, value: unknown) {
