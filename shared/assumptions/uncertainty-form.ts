@@ -158,7 +158,7 @@ export interface CorrelationDraft { a: string, b: string, rho: string }
 const text = (v: number | undefined) => (v === undefined ? '' : String(v))
 
 export function distributionTexts(d: UncertainDistribution): Record<string, string> {
-  return Object.fromEntries(DISTRIBUTION_FIELDS[d.kind].map(f => [f.key, text((d as Record<string, number | undefined>)[f.key] as number | undefined)]))
+  return Object.fromEntries(DISTRIBUTION_FIELDS[d.kind].map(f => [f.key, text((d as unknown as Record<string, number | undefined>)[f.key])]))
 }
 
 export function draftOf(e: UncertainAssumption): EntryDraft {
