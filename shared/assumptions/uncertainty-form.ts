@@ -5,6 +5,7 @@ import { describeUncertainPath, type AssumptionSet } from '../engine/assumptions
 import { distributionQuantile, FLASH_DENSITY_FACTOR_PATH, uncertainPathRange, type ValueRange } from '../engine/uncertainty-ranges'
 import type { AssumptionCorrelation, AssumptionUncertainty, UncertainAssumption, UncertainDistribution, UncertaintyBasis } from '../engine/uncertainty-types'
 import { getPath } from '../paths'
+import { formatNumber } from '../format'
 
 export type DistributionKind = UncertainDistribution['kind']
 
@@ -41,7 +42,7 @@ export function unitAfter(unit: string): string {
 
 export function number(v: number): string {
   if (!Number.isFinite(v)) return String(v)
-  if (v !== 0 && (Math.abs(v) >= 1e5 || Math.abs(v) < 1e-3)) return v.toExponential(2).replace('e+', '·10^').replace('e-', '·10^-')
+  if (v !== 0 && (Math.abs(v) >= 1e5 || Math.abs(v) < 1e-3)) return formatNumber(v, 3)
   return String(Number(v.toPrecision(3)))
 }
 

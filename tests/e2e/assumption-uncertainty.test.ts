@@ -4,7 +4,8 @@
 // comparison showing what changed.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
 import type { Browser } from 'playwright-core'
-import { launchBrowser, openGuardedPage, saveScreenshot } from '../support/browser'
+import { resolve } from 'node:path'
+import { launchBrowser, openGuardedPage, saveScreenshot, screenshotDir } from '../support/browser'
 import { signInPage } from '../support/browser-session'
 import { testPool } from '../support/db'
 import { DEMO_PASSWORD } from '../support/demo-run'
@@ -38,6 +39,7 @@ describe('uncertainty of the assumptions', () => {
     // Log-normal, median 70 kV, σ of ln 0.35: 5–95 % = 70·exp(∓1.645·0.35) = 39.4 to 124 kV (closed form).
     expect(await u50.innerText()).toMatch(/log-normal, median 70 kV, σ of ln\(value\) 0\.35\s+39\.4 to 124 kV\s+illustrative range — calibrate/)
     await saveScreenshot(page, 'assumption-uncertainty-view')
+    await u50.screenshot({ path: resolve(screenshotDir, 'assumption-uncertainty-view-row.png') })
 
     await page.getByRole('button', { name: 'Edit values' }).click()
     // The vapour-control factor becomes a uniform range, first beyond its valid [0, 1].
@@ -64,6 +66,7 @@ describe('uncertainty of the assumptions', () => {
     expect(await vapour.getByRole('textbox', { name: 'Upper bound of Vapour-control factor on ignition' }).getAttribute('aria-invalid')).toBe('true')
     expect(await page.getByTestId('assumption-errors').innerText()).toContain('Some values need attention')
     await saveScreenshot(page, 'assumption-uncertainty-error')
+    await vapour.screenshot({ path: resolve(screenshotDir, 'assumption-uncertainty-error-row.png') })
 
     await vapour.getByRole('textbox', { name: 'Upper bound of Vapour-control factor on ignition' }).fill('0.6')
     await page.getByTestId('assumption-save').click()
