@@ -58,6 +58,9 @@ describe('uncertainty of the assumptions', () => {
     await corr.getByRole('combobox', { name: 'Correlation 1: first assumption' }).selectOption('thresholds.sharp_device.u50Kv')
     await corr.getByRole('combobox', { name: 'Correlation 1: second assumption' }).selectOption('thresholds.sharp_device.sigma')
     await corr.getByRole('textbox', { name: 'Correlation 1: ρ' }).fill('-0.3')
+    // A value changed from its default loses its illustrative range, and the form says so before saving.
+    await page.locator('input[name="ignitionGivenSpark.crude"]').fill('0.35')
+    await panel.locator('[data-uncertain-path="ignitionGivenSpark.crude"]').getByTestId('uncertainty-dropping').waitFor()
     await page.getByTestId('assumption-save').click()
 
     const message = vapour.locator('[data-field-error$=".distribution.max"]')
@@ -78,6 +81,8 @@ describe('uncertainty of the assumptions', () => {
     // The added value starts as a normal on its value 0.65 (truncated to its valid range by default).
     expect(entry('strikingDistanceB')).toEqual({ path: 'strikingDistanceB', distribution: { kind: 'normal', mean: 0.65, sd: 0.05 }, basis: 'analyst', note: '' })
     expect(entry('thresholds.sharp_device.u50Kv').basis).toBe('illustrative')
+    expect(entry('ignitionGivenSpark.crude')).toBeUndefined()
+    expect(saved.ignitionGivenSpark.crude).toBe(0.35)
     expect(saved.uncertainty.correlations).toEqual([{ a: 'thresholds.sharp_device.u50Kv', b: 'thresholds.sharp_device.sigma', rho: -0.3 }])
     expect(await page.getByTestId('assumption-uncertainty').locator('[data-uncertain-path="vapourControlFactor"]').innerText()).toMatch(/uniform, 0\.1 to 0\.6\s+0\.125 to 0\.575\s+analyst's judgement/) // 5–95 % of U(0.1, 0.6): 0.1 + 0.05·0.5, 0.1 + 0.95·0.5
 
