@@ -9,6 +9,13 @@ import { formatNumber } from '../format'
 
 export type DistributionKind = UncertainDistribution['kind']
 
+/** JSON with object keys sorted: the database (jsonb) does not keep the order keys were written in. */
+export function stableJson(value: unknown): string {
+  return JSON.stringify(value, (_key, v: unknown) => (v && typeof v === 'object' && !Array.isArray(v)
+    ? Object.fromEntries(Object.entries(v as Record<string, unknown>).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)))
+    : v))
+}
+
 export const DISTRIBUTION_KINDS: readonly { kind: DistributionKind, label: string }[] = [
   { kind: 'lognormal', label: 'log-normal' },
   { kind: 'normal', label: 'normal (truncated to the valid range)' },
@@ -128,7 +135,7 @@ export function compareUncertainty(a: AssumptionUncertainty | undefined, b: Assu
   return paths.map(path => {
     const ea = ma.get(path)
     const eb = mb.get(path)
-    return { path, label: labelOf(path), a: ea, b: eb, differs: JSON.stringify(ea ?? null) !== JSON.stringify(eb ?? null) }
+    return { path, label: labelOf(path), a: ea, b: eb, differs: stableJson(ea ?? null) !== stableJson(eb ?? null) }
   })
 }
 
@@ -150,7 +157,7 @@ export interface EntryDraft {
   values: Record<string, string>
   basis: UncertaintyBasis
   note: string
-  /** The distribution as saved (JSON), to tell an edited distribution from an untouched one. */
+  /** The distribution as saved (key-order free JSON), to tell an edited distribution from an untouched one. */
   saved: string
 }
 
@@ -163,7 +170,7 @@ export function distributionTexts(d: UncertainDistribution): Record<string, stri
 }
 
 export function draftOf(e: UncertainAssumption): EntryDraft {
-  return { path: e.path, kind: e.distribution.kind, values: distributionTexts(e.distribution), basis: e.basis, note: e.note, saved: JSON.stringify(e.distribution) }
+  return { path: e.path, kind: e.distribution.kind, values: distributionTexts(e.distribution), basis: e.basis, note: e.note, saved: stableJson(e.distribution) }
 }
 
 /** The distribution the texts say (NaN where a required number is missing, which validation then names). */
@@ -185,7 +192,7 @@ export function distributionOf(d: Pick<EntryDraft, 'kind' | 'values'>): Uncertai
 /** The entry a draft stands for: a changed distribution is the analyst's; an untouched one keeps its basis. */
 export function entryOf(d: EntryDraft): UncertainAssumption {
   const distribution = distributionOf(d)
-  const basis = JSON.stringify(distribution) === d.saved ? d.basis : 'analyst'
+  const basis = stableJson(distribution) === d.saved ? d.basis : 'analyst'
   return { path: d.path, distribution, basis, note: d.note.trim() }
 }
 

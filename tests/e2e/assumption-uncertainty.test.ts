@@ -81,6 +81,9 @@ describe('uncertainty of the assumptions', () => {
     // The added value starts as a normal on its value 0.65 (truncated to its valid range by default).
     expect(entry('strikingDistanceB')).toEqual({ path: 'strikingDistanceB', distribution: { kind: 'normal', mean: 0.65, sd: 0.05 }, basis: 'analyst', note: '' })
     expect(entry('thresholds.sharp_device.u50Kv').basis).toBe('illustrative')
+    // Untouched ranges keep their basis, whatever order the database keeps their keys in.
+    expect(entry('thresholds.sharp_device.sigma').basis).toBe('illustrative')
+    expect(saved.uncertainty.entries.filter((e: { basis: string }) => e.basis === 'analyst').map((e: { path: string }) => e.path).sort()).toEqual(['strikingDistanceB', 'vapourControlFactor'])
     expect(entry('ignitionGivenSpark.crude')).toBeUndefined()
     expect(saved.ignitionGivenSpark.crude).toBe(0.35)
     expect(saved.uncertainty.correlations).toEqual([{ a: 'thresholds.sharp_device.u50Kv', b: 'thresholds.sharp_device.sigma', rho: -0.3 }])
