@@ -48,6 +48,7 @@ describe('uncertainty of the assumptions', () => {
     await vapour.getByRole('textbox', { name: 'Lower bound of Vapour-control factor on ignition' }).fill('0.1')
     await vapour.getByRole('textbox', { name: 'Upper bound of Vapour-control factor on ignition' }).fill('1.2')
     await vapour.getByRole('textbox', { name: 'Why this range: Vapour-control factor on ignition' }).fill('site survey of the vapour recovery units')
+    expect(await vapour.getByTestId('uncertainty-basis').innerText()).toBe('analyst\'s judgement') // a changed distribution is the analyst's
     // A value with no uncertainty yet gets one, and a correlation with a threshold.
     await panel.getByRole('combobox', { name: 'Assumption to give an uncertainty' }).selectOption('strikingDistanceB')
     await page.getByTestId('uncertainty-add').click()
