@@ -2,10 +2,13 @@
 // their provenance, or new ground flash densities on sites. One transaction each, audited.
 import type { H3Event } from 'h3'
 import { and, eq } from 'drizzle-orm'
-import { EngineInputError } from '../../shared/engine/assumptions'
+import { EngineInputError, parseAssumptions } from '../../shared/engine/assumptions'
+import { FLASH_DENSITY_FACTOR_PATH } from '../../shared/engine/uncertainty-ranges'
+import type { AssumptionCorrelation, AssumptionUncertainty, UncertainAssumption } from '../../shared/engine/uncertainty-types'
 import { roundSignificant } from '../../shared/format'
-import type { LognormalFit, ProbitFit, UpAndDownResult } from '../../shared/calibration'
+import { currentLawUncertainty, flashCountUncertainty, thresholdUncertainty, type LognormalFit, type ProbitFit, type UpAndDownResult } from '../../shared/calibration'
 import type { ClusterFitResult } from '../../shared/calibration/cluster-fit'
+import { normalQuantile } from '../../shared/engine/normal'
 import { addVersion, findVersion, mergeParameters } from '../assumptions/versions'
 import { useDb } from '../db'
 import { calibrationApplications, calibrations } from '../db/schema'
@@ -42,6 +45,86 @@ export interface ParameterProvenance {
 }
 
 interface Change { key: string, value: number | string, unit: string, method: string, interval: ParameterProvenance['interval'], detail: string }
+
+/** The uncertainty a calibration's estimates carry: entries (basis 'calibration') and their correlations. */
+interface CalibratedUncertainty { entries: UncertainAssumption[], correlations: AssumptionCorrelation[] }
+
+/** "calibration "Title" (id 1a2b3c4d, made 2026-12-03)": which calibration, and which one of that title. */
+function calibrationName(c: Calibration): string {
+  return `calibration "${c.title}" (id ${c.id.slice(0, 8)}, made ${new Date(c.createdAt).toISOString().slice(0, 10)})`
+}
+
+/**
+ * The set's uncertainty with the calibrated entries in place of any earlier ones for the same paths
+ * (and without the correlations that named those paths); the calibrated correlations added.
+ */
+export function withCalibratedUncertainty(current: AssumptionUncertainty, calibrated: CalibratedUncertainty): AssumptionUncertainty {
+  const replaced = new Set(calibrated.entries.map(e => e.path))
+  return {
+    entries: [...current.entries.filter(e => !replaced.has(e.path)), ...calibrated.entries],
+    correlations: [...current.correlations.filter(c => !replaced.has(c.a) && !replaced.has(c.b)), ...calibrated.correlations],
+  }
+}
+
+function lightningUncertainty(c: Calibration, changes: Change[]): CalibratedUncertainty {
+  const results = c.results as { pooled: { fit: LognormalFit | null }, sites: LightningSiteRow[] }
+  const fit = results.pooled.fit!
+  const median = changes.find(ch => ch.key === 'lognormalMedianKa')!.value as number
+  const beta = changes.find(ch => ch.key === 'lognormalBeta')!.value as number
+  const pair = currentLawUncertainty(fit, median, beta)
+  const from = calibrationName(c)
+  const entries: UncertainAssumption[] = [
+    { path: 'lognormalMedianKa', distribution: pair.first, basis: 'calibration', note: `From ${from}: maximum-likelihood fit of ${fit.n} first-stroke currents; log-normal with σ of ln(median) = standard error of μ from the inverse observed Fisher information` },
+    { path: 'lognormalBeta', distribution: pair.second, basis: 'calibration', note: `From ${from}: standard error of β from the inverse observed Fisher information of the same fit` },
+  ]
+  const count = results.sites.reduce((t, s) => t + s.flashDensity.flashCount, 0)
+  const flash = flashCountUncertainty(count)
+  if (flash) {
+    const pct = (x: number) => `${Number(x.toPrecision(3))}`
+    entries.push({
+      path: FLASH_DENSITY_FACTOR_PATH, distribution: flash.distribution, basis: 'calibration',
+      note: `From ${from}: ${count} flashes counted over ${results.sites.length} site${results.sites.length === 1 ? '' : 's'}; the log-normal matches the exact Poisson (Garwood 1936) 95 % interval × ${pct(flash.interval.lo)} to × ${pct(flash.interval.hi)}. Counting scatter only, common to all sites; applies where the sites' flash densities came from this calibration`,
+    })
+  }
+  return { entries, correlations: [{ a: 'lognormalMedianKa', b: 'lognormalBeta', rho: pair.rho }] }
+}
+
+function impulseUncertainty(c: Calibration, changes: Change[], method: 'likelihood' | 'up_and_down'): CalibratedUncertainty {
+  const results = c.results as { likelihood: ProbitFit | null }
+  const ml = results.likelihood
+  const sigmaChange = changes.find(ch => ch.key.endsWith('.sigma'))
+  const u50Change = changes.find(ch => ch.key.endsWith('.u50Kv'))
+  if (!ml || !sigmaChange || !u50Change) return { entries: [], correlations: [] }
+  const pair = thresholdUncertainty(ml, u50Change.value as number, sigmaChange.value as number)
+  const from = calibrationName(c)
+  const u50Note = method === 'likelihood'
+    ? `From ${from}: maximum-likelihood U50 (× the equivalence factor); log-normal with σ of ln U50 from the inverse observed Fisher information`
+    : `From ${from}: up-and-down U50 (× the equivalence factor); the up-and-down mean has no standard error of its own, so σ of ln U50 is the maximum-likelihood one of the same series`
+  const entries: UncertainAssumption[] = [
+    { path: u50Change.key, distribution: pair.first, basis: 'calibration', note: u50Note },
+    { path: sigmaChange.key, distribution: pair.second, basis: 'calibration', note: `From ${from}: maximum-likelihood σ with its standard error from the inverse observed Fisher information (normal, truncated to 0–3)` },
+  ]
+  return { entries, correlations: [{ a: u50Change.key, b: sigmaChange.key, rho: pair.rho }] }
+}
+
+/**
+ * Storm spread and flashes per storm from their parametric-bootstrap percentile intervals: a normal
+ * (truncated to the value's valid range) centred on the estimate with sd = interval width ÷ (2·z).
+ * The bootstrap's correlation of the two is not kept (no correlation entry).
+ */
+function stormClusteringUncertainty(c: Calibration, changes: Change[]): CalibratedUncertainty {
+  const from = calibrationName(c)
+  const entries: UncertainAssumption[] = []
+  for (const ch of changes) {
+    if (!ch.interval || typeof ch.value !== 'number' || !(ch.interval.hi > ch.interval.lo)) continue
+    const z = normalQuantile((1 + ch.interval.confidence) / 2)
+    entries.push({
+      path: ch.key, distribution: { kind: 'normal', mean: ch.value, sd: roundSignificant((ch.interval.hi - ch.interval.lo) / (2 * z), 3) }, basis: 'calibration',
+      note: `From ${from}: parametric-bootstrap ${Math.round(ch.interval.confidence * 100)} % interval ${ch.interval.lo}–${ch.interval.hi} ${ch.unit} read as a normal of the same width`,
+    })
+  }
+  return { entries, correlations: [] }
+}
 
 function setPath(target: Record<string, unknown>, key: string, value: unknown) {
   const parts = key.split('.')
@@ -101,6 +184,9 @@ export async function applyToAssumptions(member: Member, event: H3Event, calibra
   const base = await findVersion(member.organisationId, input.assumptionVersionId)
   if (!base) notFound('Assumption-set version')
   const changes = calibration.kind === 'lightning' ? lightningChanges(calibration) : calibration.kind === 'storm_clustering' ? stormClusteringChanges(calibration) : impulseChanges(calibration, input.method)
+  const calibrated = calibration.kind === 'lightning'
+    ? lightningUncertainty(calibration, changes)
+    : calibration.kind === 'storm_clustering' ? stormClusteringUncertainty(calibration, changes) : impulseUncertainty(calibration, changes, input.method)
   const file = (calibration.results as { file: FileRef }).file
   const appliedAt = new Date().toISOString()
   const parameterChanges: Record<string, unknown> = {}
@@ -114,6 +200,9 @@ export async function applyToAssumptions(member: Member, event: H3Event, calibra
   }
   const note = input.note || `From calibration "${calibration.title}"`
   try {
+    // The base's uncertainty as it reads now (an old version gets the illustrative ranges of its
+    // default values), with the calibrated entries in place of earlier ones for the same paths.
+    parameterChanges.uncertainty = withCalibratedUncertainty(parseAssumptions(base.version.parameters).uncertainty, calibrated)
     return await useDb().transaction(async (tx) => {
       const version = await addVersion(tx, base.set.id, member.user.id, {
         parameters: mergeParameters(base.version.parameters, parameterChanges),

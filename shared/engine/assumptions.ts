@@ -6,7 +6,9 @@ import type { FlashDensityFormula } from './flash-density'
 import { SPEED_OF_LIGHT_M_PER_S } from './induction'
 import type { DamageRatio, FireSpread, LossComponent } from './loss'
 import { fieldMessages, type FieldMessages } from '../schemas/messages'
-import { assumptionUncertaintySchema, emptyUncertainty, type AssumptionUncertainty } from './uncertainty-types'
+import { assumptionUncertaintySchema, type AssumptionUncertainty } from './uncertainty-types'
+import { illustrativeUncertainty } from './uncertainty-defaults'
+import { assumptionValueAt, FLASH_DENSITY_FACTOR_LABEL, FLASH_DENSITY_FACTOR_PATH, uncertaintyIssues, type PathDescription } from './uncertainty-ranges'
 
 export type CurrentLawKind = 'power_law' | 'lognormal' | 'empirical'
 export type SparkContents = Exclude<Contents, 'chemical'>
@@ -92,7 +94,7 @@ export const defaultAssumptions: Readonly<AssumptionSet> = Object.freeze({
   flashDensityFormula: 'anderson',
   cutoffProbability: 1e-6,
   stormClustering: { spreadKm: 10, flashesPerStorm: 1000 },
-  uncertainty: emptyUncertainty(),
+  uncertainty: illustrativeUncertainty(),
 } satisfies AssumptionSet)
 
 export interface AssumptionParameterMeta {
@@ -259,7 +261,16 @@ export const assumptionSetSchema = z.strictObject({
     const inside = a.empiricalCurrentsKa.filter((i) => i >= a.currentMinKa && i <= a.currentMaxKa)
     if (inside.length < 2) ctx.addIssue({ code: 'custom', path: ['empiricalCurrentsKa'], message: `the empirical current law needs at least two recorded currents between Imin and Imax (${a.currentMinKa}–${a.currentMaxKa} kA)` })
   }
+  for (const issue of uncertaintyIssues(a as AssumptionSet, describeUncertainPath)) ctx.addIssue({ code: 'custom', ...issue })
 })
+
+/** Label and unit of a path that may carry an uncertainty (a numeric assumption or the flash density factor). */
+export function describeUncertainPath(path: string): PathDescription | undefined {
+  if (path === FLASH_DENSITY_FACTOR_PATH) return { label: FLASH_DENSITY_FACTOR_LABEL, unit: '×' }
+  const meta = assumptionParameterMeta.find((m) => m.key === path)
+  if (!meta || (meta.kind !== 'number' && meta.kind !== 'optional_number')) return undefined
+  return { label: meta.label, unit: meta.unit }
+}
 
 /** Thrown for any invalid engine input; `issues` holds one readable line per problem, `fields` the message per dotted path. */
 export class EngineInputError extends Error {
@@ -306,12 +317,35 @@ function withoutRetiredKeys(partial: unknown): unknown {
   return Object.fromEntries(Object.entries(partial).filter(([key]) => !RETIRED_ASSUMPTION_KEYS.includes(key)))
 }
 
+/**
+ * An illustrative uncertainty range belongs to its illustrative default value: where the set's value
+ * differs from the default, the range (and any correlation naming it) is dropped. So a stored version
+ * without `uncertainty` (made before assumptions carried uncertainty) reads with the illustrative
+ * ranges of the values it still holds at their defaults, and none for values someone changed.
+ */
+function withoutStaleIllustrativeRanges(merged: unknown): unknown {
+  if (!isPlainObject(merged) || !isPlainObject(merged.uncertainty) || !Array.isArray(merged.uncertainty.entries)) return merged
+  const stale = new Set<string>()
+  const entries = merged.uncertainty.entries.filter((e: unknown) => {
+    if (!isPlainObject(e) || e.basis !== 'illustrative' || typeof e.path !== 'string' || e.path === FLASH_DENSITY_FACTOR_PATH) return true
+    const value = assumptionValueAt(merged as unknown as AssumptionSet, e.path)
+    const keep = value === assumptionValueAt(defaultAssumptions, e.path)
+    if (!keep) stale.add(e.path)
+    return keep
+  })
+  if (stale.size === 0) return merged
+  const correlations = Array.isArray(merged.uncertainty.correlations)
+    ? merged.uncertainty.correlations.filter((c: unknown) => !isPlainObject(c) || !(stale.has(c.a as string) || stale.has(c.b as string)))
+    : merged.uncertainty.correlations
+  return { ...merged, uncertainty: { ...merged.uncertainty, entries, correlations } }
+}
+
 /** Merge a partial assumption set over the defaults and validate it; throws EngineInputError. */
 export function parseAssumptions(partial: unknown = {}): AssumptionSet {
   if (partial !== undefined && partial !== null && !isPlainObject(partial)) {
     throw new EngineInputError('Invalid assumption set', ['the assumption set must be an object'])
   }
-  const merged = deepMerge(defaultAssumptions, withoutRetiredKeys(partial ?? {}))
+  const merged = withoutStaleIllustrativeRanges(deepMerge(defaultAssumptions, withoutRetiredKeys(partial ?? {})))
   const result = assumptionSetSchema.safeParse(merged)
   if (!result.success) throw EngineInputError.fromZod('Invalid assumption set', result.error)
   return result.data

@@ -12,6 +12,15 @@ export { COMPONENT_CLASSES, TANK_MATERIALS, CONTENTS, STRUCTURE_KINDS } from './
 
 export type { AssumptionSet, AssumptionSetInput, AssumptionParameterMeta, ComponentThreshold, CurrentLawKind } from './assumptions'
 export { defaultAssumptions, assumptionSetSchema, assumptionParameterMeta, parseAssumptions, EngineInputError, formatIssues } from './assumptions'
+export { describeUncertainPath } from './assumptions'
+export type { UncertainDistribution, UncertainAssumption, AssumptionCorrelation, AssumptionUncertainty, UncertaintyBasis } from './uncertainty-types'
+export { emptyUncertainty, assumptionUncertaintySchema, uncertainDistributionSchema } from './uncertainty-types'
+export type { ValueRange, UncertaintyIssue, PathDescription } from './uncertainty-ranges'
+export {
+  FLASH_DENSITY_FACTOR_PATH, FLASH_DENSITY_FACTOR_LABEL, VALUE_COVERAGE, assumptionValueAt, uncertainPathRange, distributionSupport,
+  distributionQuantile, distributionCentre, truncatedNormalMass, uncertaintyIssues,
+} from './uncertainty-ranges'
+export { ILLUSTRATIVE_UNCERTAINTY, illustrativeUncertainty } from './uncertainty-defaults'
 export { siteInputSchema, tankInputSchema, structureInputSchema, parseSite } from './site-schema'
 
 export type { FlashDensityFormula } from './flash-density'

@@ -148,6 +148,17 @@ describe('lightning-location records', () => {
     expect(stored.provenance.lognormalMedianKa.method).toMatch(/truncated below at 5 kA/)
     expect(stored.provenance.powerLawExponent).toEqual({ source: 'earlier' }) // earlier provenance kept
     expect(stored.note).toBe('Gulf coast currents')
+    // The fit's uncertainty comes with it (basis 'calibration', naming the calibration); the untouched power law keeps its illustrative range.
+    const entry = (path: string) => stored.parameters.uncertainty.entries.find((e: { path: string }) => e.path === path)
+    const fit = (await pool.query(`SELECT results FROM calibrations WHERE id = $1`, [calibrationId])).rows[0].results.pooled.fit
+    expect(entry('lognormalMedianKa')).toMatchObject({ basis: 'calibration', distribution: { kind: 'lognormal', median: body.values.lognormalMedianKa, sigmaLn: Math.sqrt(fit.covariance[0]) } })
+    expect(entry('lognormalMedianKa').note).toMatch(new RegExp(`calibration "Gulf coast 2020–2022" \\(id ${calibrationId.slice(0, 8)}, made \\d{4}-\\d{2}-\\d{2}\\)`))
+    expect(entry('lognormalBeta')).toMatchObject({ basis: 'calibration', distribution: { kind: 'normal', mean: body.values.lognormalBeta, sd: Math.sqrt(fit.covariance[2]) } })
+    expect(stored.parameters.uncertainty.correlations).toEqual([{ a: 'lognormalMedianKa', b: 'lognormalBeta', rho: expect.any(Number) }])
+    expect(entry('powerLawExponent').basis).toBe('illustrative')
+    // The flash count of the calibrated sites gives the flash density factor (Garwood 1936 interval; see tests/unit/calibration/uncertainty.test.ts).
+    expect(entry('flashDensityFactor')).toMatchObject({ basis: 'calibration', distribution: { kind: 'lognormal' } })
+    expect(entry('flashDensityFactor').note).toMatch(/flashes counted over 2 sites; .*Garwood 1936/)
     const detail = await (await viewer.get(`/api/calibrations/${calibrationId}`)).json()
     expect(detail.applications[0]).toMatchObject({ target: 'assumption_version', assumptionVersionId: body.version.id })
   })
@@ -201,6 +212,14 @@ describe('impulse test records', () => {
     expect(v.values['thresholds.sharp_device.u50Kv']).toBeCloseTo(74.24, 10) // 92.8 kV × 0.8
     expect(v.values['thresholds.sharp_device.sigma']).toBe(Number(c.results.likelihood.sigma.toPrecision(4)))
     expect(v.provenance['thresholds.sharp_device.u50Kv'].detail).toMatch(/equivalence factor 0.8/)
+    const stored = (await pool.query(`SELECT parameters FROM assumption_set_versions WHERE id = $1`, [v.version.id])).rows[0].parameters
+    const entry = (path: string) => stored.uncertainty.entries.find((e: { path: string }) => e.path === path)
+    // U50 and σ carry the likelihood covariance (the up-and-down mean has no standard error of its own); other classes keep theirs.
+    expect(entry('thresholds.sharp_device.u50Kv')).toMatchObject({ basis: 'calibration', distribution: { kind: 'lognormal', median: v.values['thresholds.sharp_device.u50Kv'] } })
+    expect(entry('thresholds.sharp_device.u50Kv').note).toMatch(/up-and-down U50 .*maximum-likelihood one of the same series/)
+    expect(entry('thresholds.sharp_device.sigma')).toMatchObject({ basis: 'calibration', distribution: { kind: 'normal', mean: v.values['thresholds.sharp_device.sigma'] } })
+    expect(stored.uncertainty.correlations).toContainEqual({ a: 'thresholds.sharp_device.u50Kv', b: 'thresholds.sharp_device.sigma', rho: expect.any(Number) })
+    expect(entry('thresholds.grounded_pipe.u50Kv').basis).toBe('illustrative')
     const source = await (await analyst.get(`/api/calibrations/${c.id}/source`)).text()
     expect(source.split('\n')[1]).toBe('90,no')
   })

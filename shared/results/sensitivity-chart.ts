@@ -1,0 +1,87 @@
+// "What to calibrate next": the ranking of variance-based sensitivity indices and where each
+// assumption is calibrated (issue "How sure are we"). Pure functions for the SensitivityChart.
+//
+// The index shapes are those the engine's sensitivity estimator returns (shared/engine/sensitivity.ts
+// once it is merged; the same shape is stated here until then).
+
+export interface SensitivityEstimate { estimate: number; se: number }
+
+export interface SensitivityIndex {
+  /** Dotted path of the uncertain assumption (or `flashDensityFactor`). */
+  path: string
+  label: string
+  unit: string
+  /** First-order index S_i: the share of the output's variance due to this assumption alone. */
+  firstOrder: SensitivityEstimate
+  /** Total-effect index S_Ti: the share it accounts for with all its interactions. */
+  totalEffect: SensitivityEstimate
+}
+
+export interface SensitivityResult {
+  metric: 'expectedFires' | 'aal'
+  /** Base samples N of the estimator (its cost is N·(k + 2) evaluations). */
+  baseSamples: number
+  indices: SensitivityIndex[]
+}
+
+/** Whiskers at ±2 standard errors (about 95 % for a normal sampling error). */
+export const WHISKER_SE = 2
+
+export interface RankedIndex extends SensitivityIndex {
+  rank: number
+  /** Whisker ends, estimate ∓ 2·se. */
+  totalRange: [number, number]
+  firstRange: [number, number]
+  /** The estimate lies within its sampling error of 0 (|estimate| ≤ 2·se). */
+  totalWithinNoise: boolean
+  firstWithinNoise: boolean
+}
+
+const withinNoise = (e: SensitivityEstimate) => Math.abs(e.estimate) <= WHISKER_SE * e.se
+
+/**
+ * Ranked by total effect, largest first (the assumption that, fixed at its true value, would remove
+ * the most variance); ties by first order, then by label, so the order never depends on the input's.
+ */
+export function rankIndices(result: SensitivityResult): RankedIndex[] {
+  return [...result.indices]
+    .sort((a, b) => b.totalEffect.estimate - a.totalEffect.estimate || b.firstOrder.estimate - a.firstOrder.estimate || a.label.localeCompare(b.label))
+    .map((index, k) => ({
+      ...index,
+      rank: k + 1,
+      totalRange: [index.totalEffect.estimate - WHISKER_SE * index.totalEffect.se, index.totalEffect.estimate + WHISKER_SE * index.totalEffect.se],
+      firstRange: [index.firstOrder.estimate - WHISKER_SE * index.firstOrder.se, index.firstOrder.estimate + WHISKER_SE * index.firstOrder.se],
+      totalWithinNoise: withinNoise(index.totalEffect),
+      firstWithinNoise: withinNoise(index.firstOrder),
+    }))
+}
+
+export interface CalibrationPage { to: string; title: string }
+
+const IMPULSE: CalibrationPage = { to: '/calibration/impulse', title: 'Calibration from impulse test records' }
+const LIGHTNING: CalibrationPage = { to: '/calibration/lightning', title: 'Calibration from lightning-location records' }
+
+/**
+ * The calibration page that estimates an assumption, or null when none does: sparking levels and
+ * their scatter come from impulse tests; the current law and the flash density from
+ * lightning-location records (the lightning calibration fits the log-normal law; it also replaces
+ * a power law, which it turns into the log-normal).
+ */
+export function calibrationPageFor(path: string): CalibrationPage | null {
+  if (/^thresholds\.[a-z_]+\.(u50Kv|sigma)$/.test(path)) return IMPULSE
+  if (['lognormalMedianKa', 'lognormalBeta', 'powerLawMedianKa', 'powerLawExponent', 'flashDensityFactor'].includes(path)) return LIGHTNING
+  return null
+}
+
+const METRIC_LABELS: Record<SensitivityResult['metric'], string> = { expectedFires: 'expected fires per year', aal: 'average annual loss' }
+
+export function metricLabel(metric: SensitivityResult['metric']): string {
+  return METRIC_LABELS[metric]
+}
+
+/** A readable note for an index whose estimate is within its sampling error of 0, or null. */
+export function noiseNote(index: RankedIndex): string | null {
+  if (index.totalWithinNoise) return `The total effect of ${index.label} is within its sampling error of 0: it may not matter, or the run has too few base samples to tell.`
+  if (index.firstWithinNoise) return `The first-order effect of ${index.label} is within its sampling error of 0: it acts mainly through its interactions with other assumptions.`
+  return null
+}
