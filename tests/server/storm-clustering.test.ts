@@ -82,6 +82,15 @@ describe('storm clustering calibration', () => {
     expect(stored.provenance['stormClustering.spreadKm'].unit).toBe('km')
     expect(stored.provenance['stormClustering.flashesPerStorm'].interval.confidence).toBe(0.95)
     expect(stored.provenance['stormClustering.spreadKm'].method).toMatch(/minimum contrast/)
+    // The estimates carry their bootstrap interval as an uncertainty: a normal whose central 95 % is
+    // as wide as the interval (mean ± 1.96 sd, the normal's 97.5 % point — common practice).
+    const spread = stored.parameters.uncertainty.entries.find((e: { path: string }) => e.path === 'stormClustering.spreadKm')
+    const interval = stored.provenance['stormClustering.spreadKm'].interval
+    expect(spread.basis).toBe('calibration')
+    expect(spread.distribution.kind).toBe('normal')
+    expect(spread.distribution.mean).toBe(stored.parameters.stormClustering.spreadKm)
+    expect(2 * 1.959964 * spread.distribution.sd / (interval.hi - interval.lo)).toBeCloseTo(1, 2)
+    expect(stored.parameters.uncertainty.entries.some((e: { path: string }) => e.path === 'stormClustering.flashesPerStorm')).toBe(true)
     // The rest of the set is the base version's.
     expect(stored.parameters.lognormalMedianKa).toBe(defaultAssumptions.lognormalMedianKa)
   })
