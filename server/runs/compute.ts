@@ -13,6 +13,7 @@ import { siteEventBands, type SiteEventBands } from '../../shared/engine/heatmap
 import { prepareSiteOnce, type SitePreparation } from '../../shared/engine/prepared'
 import { threadId } from 'node:worker_threads'
 import { epochMs, type SiteThreadTiming } from './timing'
+import { computeSiteDraws, type SiteDraws } from './draws'
 
 export type RunMode = 'frequency' | 'year'
 
@@ -26,6 +27,8 @@ export interface SiteTask {
   /** Frequency mode: the negligible-rate rule (/yr). */
   negligibleRatePerYear: number
   years: number
+  /** Assumption uncertainty: K draws (0: none). Frequency mode only. */
+  assumptionDraws?: number
 }
 
 /**
@@ -68,6 +71,8 @@ export interface SiteComputation {
   eventBands: SiteEventBands
   /** Where the thread's time went (ms, measured on the thread): compiling the site, the figures, the event bands. */
   timing: SiteTiming
+  /** Runs with assumption draws: bands and sensitivity of the site and of its tanks; null otherwise. */
+  draws: SiteDraws | null
 }
 
 export interface SiteTiming extends SiteThreadTiming {
@@ -94,10 +99,15 @@ export function computeSite(task: SiteTask): SiteComputation {
   const t2 = performance.now()
   const eventBands = siteEventBands(checked.site, checked.assumptions, { runSeed: checked.runSeed, samples: EVENT_BAND_SAMPLES }, prepared)
   const t3 = performance.now()
-  return { ...figures, eventBands, timing: { threadId, startedAt, endedAt: epochMs(), prepareMs: t1 - t0, figuresMs: t2 - t1, eventBandsMs: t3 - t2 } }
+  const draws = checked.mode === 'frequency' && (checked.assumptionDraws ?? 0) > 0
+    ? computeSiteDraws(checked.site, checked.assumptions, checked.assumptionDraws!, checked.runSeed, figures.tanks.map(t => ({
+        direct: t.direct.rate, sparking: t.sparking.rate, ignition: t.ignition.rate, expectedAnnualLoss: t.expectedAnnualLoss.rate,
+      })))
+    : null
+  return { ...figures, eventBands, draws, timing: { threadId, startedAt, endedAt: epochMs(), prepareMs: t1 - t0, figuresMs: t2 - t1, eventBandsMs: t3 - t2 } }
 }
 
-type SiteFigures = Omit<SiteComputation, 'eventBands' | 'timing'>
+type SiteFigures = Omit<SiteComputation, 'eventBands' | 'timing' | 'draws'>
 
 function computeFrequency(task: SiteTask, prepared: SitePreparation): SiteFigures {
   const r = simulateSiteFrequency(task.site, task.assumptions, {

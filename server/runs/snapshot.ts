@@ -103,6 +103,8 @@ export interface HashInputs {
   /** Absent for runs hashed before the rule was an option (they used the default, 1e-5 /yr). */
   negligibleRatePerYear?: number
   years: number
+  /** Assumption draws; absent when off, so runs without draws keep their hash. */
+  assumptionDraws?: number
   sites: SiteInput[]
 }
 

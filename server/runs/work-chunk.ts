@@ -47,6 +47,7 @@ export async function workChunk(runId: string, chunkIndex: number, queuedAt: num
       const computation = await computeOnThread({
         site, assumptions, mode: run.mode, runSeed: run.seed,
         targetRse: run.targetRse, maxSamplesPerTank: run.maxSamplesPerTank, negligibleRatePerYear: run.negligibleRatePerYear, years: run.years,
+        assumptionDraws: run.assumptionDraws,
       })
       return { computation, submittedAt, resolvedAt: epochMs() }
     } catch (error) {

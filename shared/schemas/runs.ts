@@ -27,6 +27,11 @@ export const startRunSchema = z.object({
   maxSamplesPerTank: z.number().int().min(1000, 'At least 1,000 samples per tank.').max(10_000_000, 'At most 10,000,000 samples per tank.').default(400_000),
   /** Year mode: simulated years per site. */
   years: z.number().int('Years are a whole number.').min(100, 'Simulate at least 100 years.').max(1_000_000, 'Simulate at most 1,000,000 years.').default(10_000),
+  /**
+   * Assumption uncertainty: K draws of the uncertain assumptions (0: off; otherwise 50–500), frequency
+   * mode. Adds the 5–95 % assumption band and the sensitivity indices to the results.
+   */
+  assumptionDraws: z.number().int('Draws are a whole number.').refine(v => v === 0 || (v >= 50 && v <= 500), 'Assumption draws are 0 (off) or 50–500.').default(0),
   /** Sites per chunk of work; results do not depend on it. */
   chunkSize: z.number().int().min(1, 'A chunk holds at least one site.').max(1000, 'A chunk holds at most 1,000 sites.').default(20),
 })
