@@ -217,7 +217,7 @@ export function planAssumptionDraws(central: AssumptionSet, options: { draws: nu
   if (problems.length > 0) throw new EngineInputError('Invalid assumption draws', problems)
   const index = new Map(entries.map((e, i) => [e.path, i]))
   const n = entries.length
-  const corr = entries.map((_, i) => entries.map((__, j) => (i === j ? 1 : 0)))
+  const corr: number[][] = entries.map((_, i) => entries.map((__, j) => (i === j ? 1 : 0)))
   const links: [number, number][] = []
   for (const c of central.uncertainty.correlations) {
     const i = index.get(c.a)!, j = index.get(c.b)!
