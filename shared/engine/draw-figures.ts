@@ -37,7 +37,7 @@ import type { SensitivityResult } from './sensitivity'
 import { sobolIndices } from './sensitivity'
 
 /** Shared flashes drawn per site (default). */
-export const DRAW_FLASHES_PER_SITE = 6000
+export const DRAW_FLASHES_PER_SITE = 4000
 
 /** The four figures per tank, in this order in the value arrays. */
 export const DRAW_METRICS = ['direct', 'sparking', 'ignition', 'expectedAnnualLoss'] as const
@@ -62,13 +62,26 @@ const LAW_PATHS: Record<AssumptionSet['currentLaw'], string[]> = {
   empirical: [],
 }
 
-/** ln of the truncated density of ln I under a set (parametric laws). */
-function truncatedLogDensity(a: AssumptionSet): (s: number) => number {
+/** ln of the truncated density of ln I at each of `lnI` under a set's parametric law (closed forms; 0 for the empirical law). */
+function logDensities(a: AssumptionSet, lnI: Float64Array): Float64Array {
   const law = currentLawFromSpec(lawSpec(a))
-  const mass = law.cdf(a.currentMaxKa) - law.cdf(a.currentMinKa)
-  const density = law.logDensity
-  if (!density) return () => 0
-  return (s) => Math.log(density(s) / mass)
+  const lnMass = Math.log(law.cdf(a.currentMaxKa) - law.cdf(a.currentMinKa))
+  const out = new Float64Array(lnI.length)
+  if (a.currentLaw === 'power_law') {
+    // f(s) = k·x/(1 + x)², x = (I/M)^k (IEEE Std 1410 power law, density of ln I)
+    const k = a.powerLawExponent, lnM = Math.log(a.powerLawMedianKa), lnK = Math.log(k)
+    for (let f = 0; f < lnI.length; f++) {
+      const kx = k * (lnI[f]! - lnM)
+      out[f] = lnK + kx - 2 * Math.log1p(Math.exp(kx)) - lnMass
+    }
+  } else if (a.currentLaw === 'lognormal') {
+    const lnM = Math.log(a.lognormalMedianKa), beta = a.lognormalBeta, c = -Math.log(beta * Math.sqrt(2 * Math.PI))
+    for (let f = 0; f < lnI.length; f++) {
+      const z = (lnI[f]! - lnM) / beta
+      out[f] = c - 0.5 * z * z - lnMass
+    }
+  }
+  return out
 }
 
 /** The most permissive sparking level ÷ coupling and the widest scatter over every evaluation, per class. */
@@ -97,8 +110,12 @@ interface FlashRecords {
   classX: Float64Array
 }
 
-/** Φ(−9) ≈ 1e-19: a class this far below its most permissive drawn threshold never sparks. */
-const Z_NEGLIGIBLE = -9
+/**
+ * Φ(−5.6) ≈ 1e-8: a class this far below its threshold is taken not to spark — a hundredth of the
+ * engine's own cutoff probability (1e-6 by default), beyond which the frequency mode does not
+ * simulate flashes at all.
+ */
+const Z_NEGLIGIBLE = -5.6
 
 function sampleFlashes(site: SiteInput, ps: PreparedSite, wide: PreparedSite, samples: number, runSeed: number | string): FlashRecords {
   const rand = createStream(runSeed, site.id, 'draws/flashes')
@@ -204,8 +221,13 @@ export function siteDrawValues(site: SiteInput, plan: DrawPlan, options: { runSe
   const lnH = Float64Array.from(ps.classLogCoef, (coef, c) => coef - Math.log(kc0) + Math.log(classKindU50(central, c).u50Kv))
   const lawPaths = LAW_PATHS[central.currentLaw]
   const lawDrawn = plan.entries.some((e) => lawPaths.includes(e.path))
-  const logF0 = truncatedLogDensity(central)
-  const baseLogDensity = lawDrawn ? Float64Array.from(fr.lnI, logF0) : null
+  const baseLogDensity = lawDrawn ? logDensities(central, fr.lnI) : null
+  const lawWeights = new Float64Array(fr.weight.length)
+  const reweighted = (a: AssumptionSet): Float64Array => {
+    const logF = logDensities(a, fr.lnI)
+    for (let f = 0; f < logF.length; f++) lawWeights[f] = fr.weight[f]! * Math.exp(logF[f]! - baseLogDensity![f]!)
+    return lawWeights
+  }
   const spreadCentral = spreadTable(site, central)
   const spreadDrawn = plan.entries.some((e) => e.path.startsWith('fireSpread.'))
 
@@ -213,71 +235,91 @@ export function siteDrawValues(site: SiteInput, plan: DrawPlan, options: { runSe
   const invSigma = new Float64Array(ps.classLogCoef.length)
   const pD = new Float64Array(nT), pS = new Float64Array(nT), loss = new Float64Array(nT)
   const acc = new Float64Array(nT * 4)
-  const p = new Float64Array(nT), q = new Float64Array(nT), escape = new Float64Array(nT)
+  const q = new Float64Array(nT), escape = new Float64Array(nT)
   const touched = new Int32Array(nT)
+  const { evStart, evTank, evClassX, classX } = fr
+  const classStart = ps.classStart
+  const classCount = ps.classCount
+  // Per event (flash × tank): its sparking probability (1 for a direct strike). It depends only on
+  // the coupling and the sparking levels and scatters, which many evaluations of Saltelli's design
+  // share (A_B^g for a factor g that is not one of them has A's values): evaluations are grouped by
+  // those values and the probabilities computed once per group.
+  const pEvent = new Float64Array(evTank.length)
+  const sparkKey = (a: AssumptionSet) => `${couplingCoefficient(a)}|${JSON.stringify(a.thresholds)}`
+  const groups = new Map<string, number[]>()
   for (let e = 0; e < E; e++) {
-    const a = sets[e]!.assumptions
-    const kc = couplingCoefficient(a)
+    const key = sparkKey(sets[e]!.assumptions)
+    const g = groups.get(key)
+    if (g) g.push(e)
+    else groups.set(key, [e])
+  }
+  for (const members of groups.values()) {
+    const first = sets[members[0]!]!.assumptions
+    const kc = couplingCoefficient(first)
     for (let c = 0; c < logCoef.length; c++) {
-      const th = classKindU50(a, c)
+      const th = classKindU50(first, c)
       logCoef[c] = lnH[c]! + Math.log(kc / th.u50Kv)
       invSigma[c] = th.sigma > 0 ? 1 / th.sigma : 1e12
     }
+    for (let k = 0; k < evTank.length; k++) {
+      const cx = evClassX[k]!
+      if (cx < 0) { pEvent[k] = 1; continue }
+      const t = evTank[k]!
+      const c0 = classStart[t]!
+      const c1 = classStart[t + 1]!
+      let survive = 1
+      for (let c = c0; c < c1; c++) {
+        const z = (classX[cx + c - c0]! + logCoef[c]!) * invSigma[c]!
+        if (z < Z_NEGLIGIBLE) continue
+        if (z > 9) { survive = 0; break }
+        const n = classCount[c]!
+        survive *= n === 1 ? phi(-z) : Math.pow(phi(-z), n)
+      }
+      pEvent[k] = 1 - survive
+    }
+    for (const e of members) evaluate(e)
+  }
+
+  function evaluate(e: number): void {
+    const a = sets[e]!.assumptions
     site.tanks.forEach((tank, t) => {
       pD[t] = ignitionGivenDirect(tank, a)
       pS[t] = hasInducedSparking(tank) ? ignitionGivenSpark(tank, a) : 0
       loss[t] = expectedBurningTankLoss(tank, a).total
     })
     const spread = spreadDrawn ? spreadTable(site, a) : spreadCentral
-    const logF = lawDrawn && e > 0 ? truncatedLogDensity(a) : null
+    // Importance re-weighting of the shared currents to the drawn law: w·f_k(ln I)/f_0(ln I).
+    const w8 = lawDrawn && e > 0 ? reweighted(a) : fr.weight
     acc.fill(0)
-    const { weight, lnI: lnIs, evStart, evTank, evClassX, classX } = fr
-    const classStart = ps.classStart
-    const classCount = ps.classCount
     const spreadStart = spread.spreadStart, spreadTank = spread.spreadTank, spreadProbability = spread.spreadProbability
     const hasSpread = spreadTank.length > 0
     for (let f = 0; f < F; f++) {
-      const w = logF ? weight[f]! * Math.exp(logF(lnIs[f]!) - baseLogDensity![f]!) : weight[f]!
+      const w = w8[f]!
       let nTouched = 0
+      let anyIgnition = false
       for (let k = evStart[f]!; k < evStart[f + 1]!; k++) {
         const t = evTank[k]!
-        const cx = evClassX[k]!
-        let pt: number
-        if (cx < 0) { pt = 1; acc[t * 4]! += w; q[t] = pD[t]! }
-        else {
-          let survive = 1
-          const first = classStart[t]!
-          const end = classStart[t + 1]!
-          for (let c = first; c < end; c++) {
-            const z = (classX[cx + c - first]! + logCoef[c]!) * invSigma[c]!
-            if (z < Z_NEGLIGIBLE) continue
-            const n = classCount[c]!
-            survive *= n === 1 ? phi(-z) : Math.pow(phi(-z), n)
-          }
-          pt = 1 - survive
-          acc[t * 4 + 1]! += w * pt
-          q[t] = pt * pS[t]!
-        }
-        p[t] = pt
-        acc[t * 4 + 2]! += w * q[t]!
+        const pt = pEvent[k]!
+        let qt: number
+        if (evClassX[k]! < 0) { acc[t * 4]! += w; qt = pD[t]! }
+        else { acc[t * 4 + 1]! += w * pt; qt = pt * pS[t]! }
+        q[t] = qt
+        acc[t * 4 + 2]! += w * qt
+        if (qt > 0) anyIgnition = true
         touched[nTouched++] = t
       }
       // Fire spread (as spread-frequency.ts): j burns by spread with (1 − q_j)(1 − Π_i(1 − q_i·p_ij)).
-      if (hasSpread) {
-        let anySpread = false
-        for (let i = 0; i < nTouched; i++) if (q[touched[i]!]! > 0) { anySpread = true; break }
-        if (anySpread) {
-          escape.fill(1)
-          for (let i = 0; i < nTouched; i++) {
-            const s = touched[i]!
-            const qi = q[s]!
-            if (qi === 0) continue
-            for (let k = spreadStart[s]!; k < spreadStart[s + 1]!; k++) escape[spreadTank[k]!]! *= 1 - qi * spreadProbability[k]!
-          }
-          for (let j = 0; j < nT; j++) if (escape[j]! < 1) acc[j * 4 + 3]! += w * (1 - q[j]!) * (1 - escape[j]!)
+      if (hasSpread && anyIgnition) {
+        escape.fill(1)
+        for (let i = 0; i < nTouched; i++) {
+          const s = touched[i]!
+          const qi = q[s]!
+          if (qi === 0) continue
+          for (let k = spreadStart[s]!; k < spreadStart[s + 1]!; k++) escape[spreadTank[k]!]! *= 1 - qi * spreadProbability[k]!
         }
+        for (let j = 0; j < nT; j++) if (escape[j]! < 1) acc[j * 4 + 3]! += w * (1 - q[j]!) * (1 - escape[j]!)
       }
-      for (let i = 0; i < nTouched; i++) { const t = touched[i]!; q[t] = 0; p[t] = 0 }
+      for (let i = 0; i < nTouched; i++) q[touched[i]!] = 0
     }
     const scale = site.flashDensity * sets[e]!.flashDensityFactor * 1e-6 / samples
     for (let t = 0; t < nT; t++) {
