@@ -116,6 +116,7 @@ export async function siteResults(runId: string) {
     radiusM: runSiteResults.radiusM, lambdaPerYear: runSiteResults.lambdaPerYear,
     lossAt100: sql<number | null>`(${runSiteResults.yearSummary} -> 'aggregate' -> 3 ->> 'loss')::float8`,
     tanks: sql<number>`jsonb_array_length(${runSiteSnapshots.site} -> 'tanks')`,
+    bands: sql<DrawsView['bands'] | null>`${runSiteResults.draws} -> 'bands'`,
   }).from(runSiteResults)
     .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))
     .where(eq(runSiteResults.runId, runId))
@@ -123,6 +124,8 @@ export async function siteResults(runId: string) {
   return rows.map(r => ({
     siteId: r.siteId, facts: r.facts, figures: toFigures(r), lossSplit: lossSplit(r),
     radiusM: r.radiusM, lambdaPerYear: r.lambdaPerYear, lossAt100: r.lossAt100, tanks: r.tanks,
+    /** Assumption band (5/50/95 % across draws) per figure; null: no assumption draws. */
+    assumptionBands: r.bands ?? null,
   }))
 }
 export type SiteResult = Awaited<ReturnType<typeof siteResults>>[number]

@@ -1,6 +1,7 @@
 // Runs with assumption draws (issue "How sure are we"): the option, the stored bands and indices,
 // reproducibility whatever the chunks, and the refusals.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import ExcelJS from 'exceljs'
 import { defaultAssumptions } from '../../shared/engine/assumptions'
 import { createOrganisation, memberClient, type Client } from '../support/accounts'
 import { testPool } from '../support/db'
@@ -10,6 +11,7 @@ import { createDefaultAssumptions, createFleet } from '../support/fleet'
 const pool = testPool()
 let analyst: Client
 let viewer: Client
+let underwriter: Client
 let portfolioId: string
 let versionId: string
 let plainVersionId: string
@@ -35,6 +37,7 @@ beforeAll(async () => {
   const org = await createOrganisation(pool, 'Draws Test Operator')
   analyst = await memberClient(pool, org, 'analyst')
   viewer = await memberClient(pool, org, 'viewer')
+  underwriter = await memberClient(pool, org, 'underwriter')
   portfolioId = await createFleet(pool, org, { sites: 5, tanksPerSite: 3, seed: 'draws-test' })
   versionId = await createDefaultAssumptions(pool, org, { ...defaultAssumptions, uncertainty })
   plainVersionId = await createDefaultAssumptions(pool, org, defaultAssumptions)
@@ -81,6 +84,17 @@ describe('runs with assumption draws', () => {
     const q = (p: number) => { const h = 49 * p, lo = Math.floor(h); return sorted[lo]! + (h - lo) * (sorted[lo + 1]! - sorted[lo]!) }
     expect(bands.bands.ignition.p05 / q(0.05)).toBeCloseTo(1, 9)
     expect(bands.bands.ignition.p95 / q(0.95)).toBeCloseTo(1, 9)
+    // the workbook: the band beside the interval in the summary, band columns for sites and tanks, the ranked indices
+    const res = await underwriter.get(`/api/runs/${one}/export`)
+    expect(res.status).toBe(200)
+    const wb = new ExcelJS.Workbook()
+    await wb.xlsx.load(Buffer.from(await res.arrayBuffer()) as unknown as ExcelJS.Buffer)
+    expect(wb.worksheets.map(w => w.name)).toEqual(['Summary', 'Sites', 'Tanks', 'Exceedance', 'Sensitivity', 'Assumptions'])
+    const summary = wb.getWorksheet('Summary')!.getColumn(1).values.map(String)
+    expect(summary).toContain('Assumption band across 50 draws of the uncertain assumptions')
+    const tankHeaders = (wb.getWorksheet('Tanks')!.getRow(1).values as unknown[]).map(String)
+    expect(tankHeaders).toContain('Expected fires, assumption band 95 %, /yr')
+    expect(wb.getWorksheet('Sensitivity')!.rowCount).toBe(1 + 2 * 3)
   }, 300_000)
 
   it('a run without draws says so; the option is refused where it cannot work', async () => {
