@@ -70,6 +70,8 @@ describe('a run with assumption draws', () => {
     await page.goto(`${inject('baseUrl')}/results/${runId}/sites/${sites.sites[0]!.siteId}`, { waitUntil: 'networkidle' })
     await page.getByTestId('headline-tiles').locator('[data-tile="ignition"] [data-role="assumption-band"]').waitFor()
     await page.getByTestId('sensitivity').waitFor()
+    // every tank row carries its own band under its expected fires
+    expect(await page.locator('[data-role="tank-assumption-band"]').count()).toBeGreaterThan(0)
     await saveScreenshot(page, 'draws-site')
     expect(guarded.outsideRequests).toEqual([])
   }, 600_000)
