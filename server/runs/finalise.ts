@@ -93,7 +93,7 @@ async function portfolioDraws(tx: Database, runId: string, siteIds: string[], as
     }
   }
   return {
-    draws, evaluations: E, clamped: plan.clamped,
+    draws, evaluations: E, clamped: plan.clamped, leftOut: plan.leftOut,
     bands: Object.fromEntries(DRAW_METRICS.map(m => [m, bandOf(drawsOf(sums[m], draws))])) as DrawBands,
     sensitivity: [sensitivityOf(sums.ignition, plan, 'expectedFires', `${seed}|portfolio`), sensitivityOf(sums.expectedAnnualLoss, plan, 'aal', `${seed}|portfolio`)],
   }

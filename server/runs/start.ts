@@ -38,6 +38,7 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
     if (input.mode !== 'frequency') throw new AppError(400, 'Assumption draws are available for frequency runs only (simulated years: not yet).')
     // Refuse at the start what the draws cannot take (paths, correlations), with the engine's reasons.
     try { planAssumptionDraws(assumptions, { draws: input.assumptionDraws, runSeed: seed }) } catch (error) {
+      // (illustrative ranges on assumptions the draws cannot carry are left out, not refused: the plan reports them)
       if (error instanceof EngineInputError) throw new AppError(400, `Assumption draws: ${error.issues.join('; ')}`)
       throw error
     }

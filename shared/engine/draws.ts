@@ -66,6 +66,8 @@ export interface DrawPlan {
   valuesA: Float64Array[]
   /** Damage-ratio standard deviations clamped to stay valid (over every set of the design). */
   clamped: number
+  /** Illustrative ranges on assumptions the draws cannot carry, left out (with the reason). */
+  leftOut: { path: string; reason: string }[]
 }
 
 /** Order of the evaluations of a plan: central, A (K), B (K), then A_B^g for each factor (K each). */
@@ -191,6 +193,15 @@ function lhsNormals(rows: number, columns: number, rand: () => number): Float64A
   })
 }
 
+/**
+ * Entries the draws leave out: an illustrative range on an assumption the shared flashes fix (the
+ * product's default ranges may cover every assumption) is left out and reported; the same from a
+ * calibration or an analyst is refused, because someone meant it.
+ */
+function leftOutEntries(a: AssumptionSet): { path: string; reason: string }[] {
+  return a.uncertainty.entries.filter((e) => e.basis === 'illustrative' && PATHS_REFUSED_FOR_DRAWS[e.path]).map((e) => ({ path: e.path, reason: PATHS_REFUSED_FOR_DRAWS[e.path]! }))
+}
+
 /** Validate the uncertainty for draws: every path drawable, correlations positive definite. */
 function checkEntries(a: AssumptionSet): string[] {
   const problems: string[] = []
@@ -211,15 +222,28 @@ function checkEntries(a: AssumptionSet): string[] {
 export function planAssumptionDraws(central: AssumptionSet, options: { draws: number; runSeed: number | string }): DrawPlan {
   const K = options.draws
   if (!Number.isInteger(K) || K < 2) throw new EngineInputError('Invalid assumption draws', ['the number of draws must be a whole number of at least 2'])
-  const entries = central.uncertainty.entries
-  if (entries.length === 0) throw new EngineInputError('Invalid assumption draws', ['the assumption set gives no assumption an uncertainty: add some on the assumptions page, or run without draws'])
-  const problems = checkEntries(central)
+  const leftOut = leftOutEntries(central)
+  const skipped = new Set(leftOut.map((l) => l.path))
+  const kept = {
+    ...central,
+    uncertainty: {
+      entries: central.uncertainty.entries.filter((e) => !skipped.has(e.path)),
+      correlations: central.uncertainty.correlations.filter((c) => !skipped.has(c.a) && !skipped.has(c.b)),
+    },
+  }
+  const entries = kept.uncertainty.entries
+  if (entries.length === 0) {
+    throw new EngineInputError('Invalid assumption draws', [leftOut.length > 0
+      ? `every uncertain assumption of the set is one the draws leave out (${leftOut.map((l) => l.path).join(', ')}): give another assumption an uncertainty, or run without draws`
+      : 'the assumption set gives no assumption an uncertainty: add some on the assumptions page, or run without draws'])
+  }
+  const problems = checkEntries(kept)
   if (problems.length > 0) throw new EngineInputError('Invalid assumption draws', problems)
   const index = new Map(entries.map((e, i) => [e.path, i]))
   const n = entries.length
   const corr: number[][] = entries.map((_, i) => entries.map((__, j) => (i === j ? 1 : 0)))
   const links: [number, number][] = []
-  for (const c of central.uncertainty.correlations) {
+  for (const c of kept.uncertainty.correlations) {
     const i = index.get(c.a)!, j = index.get(c.b)!
     corr[i]![j] = c.rho; corr[j]![i] = c.rho
     links.push([i, j])
@@ -283,7 +307,7 @@ export function planAssumptionDraws(central: AssumptionSet, options: { draws: nu
       : { paths: members.map((m) => m.path), path: members.map((m) => m.path).join(' + '), label: `${members.map((m) => m.label).join(' and ')} (correlated, taken together)`, unit: '—' }
   })
   return {
-    draws: K, entries: labelled, factors,
+    draws: K, entries: labelled, factors, leftOut,
     central: { assumptions: central, flashDensityFactor: 1 },
     a, b, ab, valuesA, clamped,
   }

@@ -26,7 +26,9 @@ export interface StoredPortfolioDraws {
   /** Evaluations of the design (1 + K·(2 + factors)) and drawn damage-ratio sds clamped to stay valid. */
   evaluations: number
   clamped: number
+  /** Illustrative ranges on assumptions the draws cannot carry, left out (absent for none). */
+  leftOut?: { path: string; reason: string }[]
 }
 
 /** What the screens read: bands without the series. */
-export interface DrawsView { draws: number; bands: DrawBands; sensitivity?: SensitivityResult[] }
+export interface DrawsView { draws: number; bands: DrawBands; sensitivity?: SensitivityResult[]; leftOut?: { path: string; reason: string }[] }

@@ -101,9 +101,14 @@ describe('draws honour correlations and bounds', () => {
     } })
     expect(() => planAssumptionDraws(bad, { draws: 50, runSeed: 1 })).toThrow(/not positive definite/)
   })
-  it('assumptions the shared flashes fix are refused for draws', () => {
-    const bad = parseAssumptions({ uncertainty: { entries: [lognormal('strikingDistanceA', 10, 0.1)], correlations: [] } })
+  it('assumptions the shared flashes fix are refused for draws; an illustrative range on them is left out and reported', () => {
+    const bad = parseAssumptions({ uncertainty: { entries: [lognormal('strikingDistanceA', 10, 0.1), lognormal('thresholds.sharp_device.u50Kv', 70, 0.2)], correlations: [] } })
     expect(() => planAssumptionDraws(bad, { draws: 50, runSeed: 1 })).toThrow(/strikingDistanceA: cannot be drawn/)
+    const illustrative = parseAssumptions({ uncertainty: { entries: [{ ...lognormal('strikingDistanceA', 10, 0.1), basis: 'illustrative' }, lognormal('thresholds.sharp_device.u50Kv', 70, 0.2)], correlations: [] } })
+    const plan = planAssumptionDraws(illustrative, { draws: 50, runSeed: 1 })
+    expect(plan.leftOut.map((l) => l.path)).toEqual(['strikingDistanceA'])
+    expect(plan.factors.map((f) => f.path)).toEqual(['thresholds.sharp_device.u50Kv'])
+    for (const d of plan.a) expect(d.assumptions.strikingDistanceA).toBe(10)
   })
   it('a damage-ratio sd too large for a drawn mean is clamped, and every drawn set is valid', () => {
     const s = parseAssumptions({ damageRatio: { replacement: { mean: 0.7, sd: 0.4 } }, uncertainty: { entries: [{ path: 'damageRatio.replacement.mean', distribution: { kind: 'uniform', min: 0.02, max: 0.98 }, basis: 'analyst', note: '' }], correlations: [] } })
