@@ -54,6 +54,8 @@ export interface SiteDrawValues {
   values: Float64Array
   /** Shared flashes kept (those that can give some tank an event under some draw). */
   flashes: number
+  /** The flash-density factor of each evaluation. */
+  factors: Float64Array
 }
 
 const LAW_PATHS: Record<AssumptionSet['currentLaw'], string[]> = {
@@ -209,7 +211,8 @@ export function siteDrawValues(site: SiteInput, plan: DrawPlan, options: { runSe
   const E = sets.length
   const nT = site.tanks.length
   const values = new Float64Array(E * nT * M)
-  if (nT === 0) return { evaluations: E, nTanks: 0, values, flashes: 0 }
+  const factors = Float64Array.from(sets, (d) => d.flashDensityFactor)
+  if (nT === 0) return { evaluations: E, nTanks: 0, values, flashes: 0, factors }
   const ps = prepareSite(site, central)
   const wide = prepareSite(site, widenedAssumptions(central, sets))
   const samples = options.samples ?? DRAW_FLASHES_PER_SITE
@@ -330,7 +333,7 @@ export function siteDrawValues(site: SiteInput, plan: DrawPlan, options: { runSe
       values[o + 3] = scale * (acc[t * 4 + 2]! + acc[t * 4 + 3]!) * loss[t]!
     }
   }
-  return { evaluations: E, nTanks: nT, values, flashes: F }
+  return { evaluations: E, nTanks: nT, values, flashes: F, factors }
 }
 
 function componentClassKey(ps: PreparedSite, c: number): keyof AssumptionSet['thresholds'] {
@@ -364,8 +367,9 @@ export interface SiteDrawSummary {
 
 /**
  * Central figure × X_k / X_0 per tank and evaluation: the band is anchored on the run's central
- * figure (its own estimator) and moves with the common-random-number ratio. A tank whose shared
- * flashes saw nothing at the central assumptions (X_0 = 0) keeps the draws' own estimates.
+ * figure (its own estimator) and moves with the common-random-number ratio. A figure the shared
+ * flashes never saw at the central assumptions (X_0 = 0: a rare direct strike on a shadowed tank)
+ * moves with the flash-density factor only, the one change known exactly without them.
  */
 export function adjustToCentral(v: SiteDrawValues, centralRates: readonly Record<DrawMetric, number>[]): SiteDrawSeries {
   const { evaluations: E, nTanks: nT, values } = v
@@ -376,7 +380,7 @@ export function adjustToCentral(v: SiteDrawValues, centralRates: readonly Record
       const c = centralRates[t]![m]
       for (let e = 0; e < E; e++) {
         const x = values[(e * nT + t) * M + mi]!
-        series[m][e]! += x0 > 0 ? c * x / x0 : x
+        series[m][e]! += x0 > 0 ? c * x / x0 : c * v.factors[e]!
       }
     })
   }
