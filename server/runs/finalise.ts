@@ -86,7 +86,7 @@ async function portfolioDraws(tx: Database, runId: string, siteIds: string[], as
     for (const row of page) {
       if (!row.draws) continue
       for (const m of DRAW_METRICS) {
-        const v = decodeSeries(row.draws.series[m])
+        const v = decodeSeries(row.draws.series[m], E)
         const into = sums[m]
         for (let e = 0; e < E; e++) into[e]! += v[e]!
       }

@@ -15,7 +15,7 @@ export interface StoredSiteDraws {
   sensitivity: SensitivityResult[]
   /** Shared flashes of the site kept for the draws. */
   flashes: number
-  /** Per evaluation of the plan (central, A, B, A_B^g): the site's figures, base64 of Float64 (the portfolio adds them). */
+  /** Per evaluation of the plan (central, A, B, A_B^g): the site's figures, base64 of Float32 (the portfolio adds them); direct and sparking: central and A only. */
   series: { direct: string; sparking: string; ignition: string; expectedAnnualLoss: string }
 }
 
