@@ -206,6 +206,20 @@ describe('propagation on common random numbers', () => {
     }
   })
 
+  it('the site series is the sum of its tanks\' adjusted figures, evaluation by evaluation; at the central set it is the central figure', () => {
+    const set = parseAssumptions({ uncertainty: { entries: [lognormal('thresholds.grounded_pipe.u50Kv', 100, 0.2), lognormal('ignitionGivenSpark.crude', 0.3, 0.2)], correlations: [] } })
+    const plan = planAssumptionDraws(set, { draws: 50, runSeed: 13 })
+    const site = battery()
+    const v = siteDrawValues(site, plan, { runSeed: 13, samples: 1500 })
+    const central = site.tanks.map((_, t) => ({ direct: 1e-4 * (t + 1), sparking: 0.1 * (t + 1), ignition: 0.03 * (t + 1), expectedAnnualLoss: 500 * (t + 1) }))
+    const s = summariseSiteDraws(v, central, plan, 13)
+    // evaluation 0 is the central set: central × X_0 / X_0 (common practice: the ratio anchors the band on the run's own figure)
+    expect(s.series.ignition[0]! / central.reduce((n, c) => n + c.ignition, 0)).toBeCloseTo(1, 12)
+    // crude ignition is drawn: tank B (crude) moves, and so does the site's band
+    expect(s.tanks[1]!.ignition.p95).toBeGreaterThan(s.tanks[1]!.ignition.p05)
+    expect(s.sensitivity.map((r) => r.indices.length)).toEqual([2, 2])
+  })
+
   it('same inputs and seed → same values, whatever other sites are computed (chunks and workers)', () => {
     const set = parseAssumptions({ uncertainty: { entries: [lognormal('thresholds.sharp_device.u50Kv', 70, 0.2), lognormal('powerLawMedianKa', 31, 0.1)], correlations: [] } })
     const one = siteDrawValues(battery(), planAssumptionDraws(set, { draws: 50, runSeed: 9 }), { runSeed: 9, samples: 1000 })
