@@ -1,7 +1,8 @@
 // Command-line entry to the risk engine: reads a JSON document (one site or a list of sites, with an
 // optional partial assumption set merged over the defaults) and prints JSON results.
 //   npm run calc -- <input.json> [--mode frequency|year|quadrature] [--seed N] [--years N]
-//                   [--target-rse X] [--max-samples N] [--negligible-rate X] [--events]
+//                   [--target-rse X] [--max-samples N] [--negligible-rate X] [--draws K] [--events]
+// --draws K (frequency mode): K draws of the assumption set's uncertainty; adds "assumptionDraws" (5/50/95 % bands, sensitivity).
 // Frequency mode: a figure stopped by the negligible-rate rule carries "upperBoundOnly": true (its hi is an upper bound).
 // The input format is documented in docs/engine.md (example: examples/site.json).
 // Bad input: a message on stderr and exit code 2.
@@ -11,17 +12,19 @@ import {
   simulateSiteFrequency, simulateSiteYears,
 } from '../shared/engine/index'
 import type { AssumptionSet, SiteInput, SiteYearResult } from '../shared/engine/index'
+import { evaluationCount, MAX_DRAWS, MIN_DRAWS, planAssumptionDraws } from '../shared/engine/draws'
+import { bandOf, DRAW_METRICS, drawsOf, sensitivityOf, siteDrawValues, summariseSiteDraws, type DrawMetric } from '../shared/engine/draw-figures'
 
 type Mode = 'frequency' | 'year' | 'quadrature'
 
-interface Options { file: string; mode: Mode; seed: number; years: number; targetRse: number; maxSamples: number; negligibleRate: number; events: boolean }
+interface Options { file: string; mode: Mode; seed: number; years: number; targetRse: number; maxSamples: number; negligibleRate: number; events: boolean; draws: number }
 
-const USAGE = 'usage: calc <input.json> [--mode frequency|year|quadrature] [--seed N] [--years N] [--target-rse X] [--max-samples N] [--negligible-rate X] [--events]'
+const USAGE = 'usage: calc <input.json> [--mode frequency|year|quadrature] [--seed N] [--years N] [--target-rse X] [--max-samples N] [--negligible-rate X] [--draws K] [--events]'
 
 class UsageError extends Error {}
 
 function parseArgs(argv: string[]): Options {
-  const options: Options = { file: '', mode: 'frequency', seed: 1, years: 10_000, targetRse: 0.02, maxSamples: 400_000, negligibleRate: DEFAULT_NEGLIGIBLE_RATE_PER_YEAR, events: false }
+  const options: Options = { file: '', mode: 'frequency', seed: 1, years: 10_000, targetRse: 0.02, maxSamples: 400_000, negligibleRate: DEFAULT_NEGLIGIBLE_RATE_PER_YEAR, events: false, draws: 0 }
   for (let i = 0; i < argv.length; i++) {
     const arg = argv[i]!
     const value = () => {
@@ -36,6 +39,7 @@ function parseArgs(argv: string[]): Options {
       case '--target-rse': options.targetRse = parseNumber(arg, value(), (n) => n > 0 && n < 1, 'a number between 0 and 1 (e.g. 0.02)'); break
       case '--max-samples': options.maxSamples = parseNumber(arg, value(), (n) => Number.isInteger(n) && n >= 1000, 'a whole number ≥ 1000'); break
       case '--negligible-rate': options.negligibleRate = parseNumber(arg, value(), (n) => n >= 0 && n <= 1e-3, 'a rate per year from 0 (off) to 0.001'); break
+      case '--draws': options.draws = parseNumber(arg, value(), (n) => Number.isInteger(n) && n >= MIN_DRAWS && n <= MAX_DRAWS, `a whole number from ${MIN_DRAWS} to ${MAX_DRAWS}`); break
       case '--events': options.events = true; break
       case '--help': case '-h': throw new UsageError(USAGE)
       default:
@@ -106,12 +110,37 @@ function yearSiteJson(r: SiteYearResult, withEvents: boolean) {
   }
 }
 
+/**
+ * Assumption draws (frequency mode): per tank, site and portfolio the 5/50/95 % points across K
+ * draws of the uncertain assumptions, and the sensitivity indices (shared/engine/draw-figures.ts).
+ */
+function assumptionDraws(sites: SiteInput[], assumptions: AssumptionSet, results: ReturnType<typeof simulateSiteFrequency>[], o: Options) {
+  if (o.mode !== 'frequency') throw new UsageError('--draws works with --mode frequency only')
+  const plan = planAssumptionDraws(assumptions, { draws: o.draws, runSeed: o.seed })
+  const sums = Object.fromEntries(DRAW_METRICS.map((m) => [m, new Float64Array(evaluationCount(plan))])) as Record<DrawMetric, Float64Array>
+  const perSite = sites.map((site, i) => {
+    const central = results[i]!.tanks.map((t) => ({ direct: t.direct.rate, sparking: t.sparking.rate, ignition: t.ignition.rate, expectedAnnualLoss: t.expectedAnnualLoss.rate }))
+    const s = summariseSiteDraws(siteDrawValues(site, plan, { runSeed: o.seed }), central, plan, `${o.seed}|${site.id}`)
+    for (const m of DRAW_METRICS) s.series[m].forEach((v, e) => { sums[m][e]! += v })
+    return { siteId: site.id, bands: s.site, sensitivity: s.sensitivity, tanks: s.tanks.map((bands, t) => ({ tankId: site.tanks[t]!.id, bands })) }
+  })
+  return {
+    draws: o.draws, factors: plan.factors.map((f) => f.path), clampedDamageRatioSd: plan.clamped,
+    portfolio: {
+      bands: Object.fromEntries(DRAW_METRICS.map((m) => [m, bandOf(drawsOf(sums[m], o.draws))])),
+      sensitivity: [sensitivityOf(sums.ignition, plan, 'expectedFires', `${o.seed}|portfolio`), sensitivityOf(sums.expectedAnnualLoss, plan, 'aal', `${o.seed}|portfolio`)],
+    },
+    sites: perSite,
+  }
+}
+
 function run(o: Options): unknown {
   const { sites, assumptions } = readDocument(o.file)
   const header = { engineVersion: ENGINE_VERSION, mode: o.mode, runSeed: o.seed, assumptions }
   if (o.mode === 'frequency') {
     const results = sites.map((s) => simulateSiteFrequency(s, assumptions, { runSeed: o.seed, targetRse: o.targetRse, maxSamplesPerTank: o.maxSamples, negligibleRatePerYear: o.negligibleRate }))
-    return { ...header, targetRse: o.targetRse, negligibleRatePerYear: o.negligibleRate, sites: results, portfolio: rollUpFrequency(results) }
+    const out = { ...header, targetRse: o.targetRse, negligibleRatePerYear: o.negligibleRate, sites: results, portfolio: rollUpFrequency(results) }
+    return o.draws > 0 ? { ...out, assumptionDraws: assumptionDraws(sites, assumptions, results, o) } : out
   }
   if (o.mode === 'year') {
     const results = sites.map((s) => simulateSiteYears(s, assumptions, { runSeed: o.seed, years: o.years }))

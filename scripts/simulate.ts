@@ -1,7 +1,8 @@
 // npm run simulate -- --portfolio <name or id> [--organisation <name>] [--assumptions <name@version>]
-//                     [--mode frequency|year] [--seed N] [--years N] [--target-rse X] [--negligible-rate X] [--chunk-size N] [--storm-clustering] [--wait]
+//                     [--mode frequency|year] [--seed N] [--years N] [--target-rse X] [--negligible-rate X] [--chunk-size N] [--storm-clustering]
+//                     [--assumption-draws K] [--wait]
 // Enqueues a run (workers must be running: npm start or npm run worker); with --wait, shows a
-// progress bar and prints the headline results.
+// progress bar and prints the headline results (with --assumption-draws, their 5–95 % assumption band).
 import { parseArgs } from 'node:util'
 import { and, desc, eq, ilike } from 'drizzle-orm'
 import { startRunSchema } from '../shared/schemas/runs'
@@ -10,6 +11,7 @@ import { closeDb, useDb } from '../server/db/index'
 import { assumptionSets, assumptionSetVersions, organisations, portfolios } from '../server/db/schema'
 import { stopBoss } from '../server/jobs/queue'
 import { getRun } from '../server/runs/queries'
+import { portfolioResult } from '../server/results/queries'
 import { startRun } from '../server/runs/start'
 import { AppError } from '../server/utils/errors'
 
@@ -20,7 +22,7 @@ const { values } = parseArgs({
   options: {
     'portfolio': { type: 'string' }, 'organisation': { type: 'string' }, 'assumptions': { type: 'string' },
     'mode': { type: 'string', default: 'frequency' }, 'seed': { type: 'string' }, 'years': { type: 'string' },
-    'target-rse': { type: 'string' }, 'negligible-rate': { type: 'string' }, 'chunk-size': { type: 'string' }, 'storm-clustering': { type: 'boolean', default: false }, 'wait': { type: 'boolean', default: false },
+    'target-rse': { type: 'string' }, 'negligible-rate': { type: 'string' }, 'chunk-size': { type: 'string' }, 'storm-clustering': { type: 'boolean', default: false }, 'assumption-draws': { type: 'string' }, 'wait': { type: 'boolean', default: false },
   },
   strict: true,
 })
@@ -67,6 +69,7 @@ async function main() {
     negligibleRatePerYear: values['negligible-rate'] === undefined ? undefined : Number(values['negligible-rate']),
     chunkSize: values['chunk-size'] === undefined ? undefined : Number(values['chunk-size']),
     stormClustering: values['storm-clustering'],
+    assumptionDraws: values['assumption-draws'] === undefined ? undefined : Number(values['assumption-draws']),
   })
   if (!input.success) throw new UsageError(input.error.issues.map(i => `${String(i.path[0])}: ${i.message}`).join('\n'))
   const run = await startRun(input.data, { userId: null, organisationId: portfolio.organisationId })
@@ -89,7 +92,15 @@ async function main() {
       }
       const r = current.results
       console.error(`Expected fires ${formatFrequency(r.ignitionRate)} (${formatOnceIn(r.ignitionRate)}); induced sparking ${formatFrequency(r.sparkingRate)}; direct strikes ${formatFrequency(r.directRate)}; average annual loss (AAL) ${formatMoney(r.expectedAnnualLoss, portfolio.currency)}/yr.`)
-      console.log(JSON.stringify({ runId: current.id, seed: current.seed, state: current.state, inputHash: current.inputHash, elapsedSeconds: current.progress.elapsedSeconds, currency: portfolio.currency, results: r }))
+      const draws = (await portfolioResult(current.id))?.draws ?? null
+      if (draws) {
+        const b = draws.bands
+        const range = (x: { p05: number, p95: number }) => `${formatFrequency(x.p05)}–${formatFrequency(x.p95)}`
+        console.error(`Assumption band 5–95 % over ${draws.draws} draws (apart from the simulation interval): expected fires ${range(b.ignition)}; induced sparking ${range(b.sparking)}; direct strikes ${range(b.direct)}; AAL ${formatMoney(b.expectedAnnualLoss.p05, portfolio.currency)}–${formatMoney(b.expectedAnnualLoss.p95, portfolio.currency)}/yr.`)
+        const top = draws.sensitivity[0]?.indices[0]
+        if (top) console.error(`Largest share of the expected-fires band: ${top.label} (total effect ${(100 * top.totalEffect.estimate).toFixed(0)} % ± ${(100 * top.totalEffect.se).toFixed(0)} %).`)
+      } else console.error('No assumption draws in this run.')
+      console.log(JSON.stringify({ runId: current.id, seed: current.seed, state: current.state, inputHash: current.inputHash, elapsedSeconds: current.progress.elapsedSeconds, currency: portfolio.currency, results: r, assumptionBands: draws }))
       return
     }
     await new Promise(res => setTimeout(res, 1000))

@@ -9,6 +9,8 @@ import { spreadNeighbours, type SpreadNeighbour } from '../../shared/engine/loss
 import type { ResultFigure } from '../../shared/results/figure'
 import { selectFigures, selectTankFigures, toFigures, type ResultFigures } from './figures'
 
+import type { DrawsView } from '../../shared/results/draws'
+
 export type RunRow = typeof runs.$inferSelect
 
 export interface RangedFigure { value: number, lo: number | null, hi: number | null }
@@ -121,9 +123,10 @@ export async function portfolioResult(runId: string) {
     ...selectFigures(runPortfolioResults),
     expectedAnnualLossPd: runPortfolioResults.expectedAnnualLossPd, expectedAnnualLossBi: runPortfolioResults.expectedAnnualLossBi,
     yearSummary: runPortfolioResults.yearSummary,
+    draws: runPortfolioResults.draws,
   }).from(runPortfolioResults).where(eq(runPortfolioResults.runId, runId))
   if (!row) return null
-  return { figures: toFigures(row), lossSplit: lossSplit(row), yearSummary: row.yearSummary }
+  return { figures: toFigures(row), lossSplit: lossSplit(row), yearSummary: row.yearSummary, draws: row.draws ?? null }
 }
 export type PortfolioResult = NonNullable<Awaited<ReturnType<typeof portfolioResult>>>
 
@@ -136,6 +139,7 @@ export async function siteResults(runId: string) {
     radiusM: runSiteResults.radiusM, lambdaPerYear: runSiteResults.lambdaPerYear,
     lossAt100: sql<number | null>`(${runSiteResults.yearSummary} -> 'aggregate' -> 3 ->> 'loss')::float8`,
     tanks: sql<number>`jsonb_array_length(${runSiteSnapshots.site} -> 'tanks')`,
+    bands: sql<DrawsView['bands'] | null>`${runSiteResults.draws} -> 'bands'`,
   }).from(runSiteResults)
     .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))
     .where(eq(runSiteResults.runId, runId))
@@ -143,6 +147,8 @@ export async function siteResults(runId: string) {
   return rows.map(r => ({
     siteId: r.siteId, facts: r.facts, figures: toFigures(r), lossSplit: lossSplit(r),
     radiusM: r.radiusM, lambdaPerYear: r.lambdaPerYear, lossAt100: r.lossAt100, tanks: r.tanks,
+    /** Assumption band (5/50/95 % across draws) per figure; null: no assumption draws. */
+    assumptionBands: r.bands ?? null,
   }))
 }
 export type SiteResult = Awaited<ReturnType<typeof siteResults>>[number]
@@ -154,6 +160,7 @@ const tankColumns = {
   upperBoundFigures: runTankResults.upperBoundFigures,
   expectedAnnualLossPd: runTankResults.expectedAnnualLossPd, expectedAnnualLossBi: runTankResults.expectedAnnualLossBi,
   samples: runTankResults.samples, drivingComponentClass: runTankResults.drivingComponentClass, converged: runTankResults.converged,
+  draws: runTankResults.draws,
 }
 
 function tankResult(r: Awaited<ReturnType<typeof selectTanks>>[number]) {
@@ -162,6 +169,8 @@ function tankResult(r: Awaited<ReturnType<typeof selectTanks>>[number]) {
     // A figure stopped by the negligible-rate rule is an upper bound (upperBoundOnly).
     figures: toFigures(r, r.upperBoundFigures), lossSplit: lossSplit(r),
     samples: r.samples, drivingComponentClass: r.drivingComponentClass, converged: r.converged,
+    /** Assumption band (5/50/95 % across draws) of each figure; null: the run had no assumption draws. */
+    draws: r.draws ?? null,
   }
 }
 const selectTanks = () => useDb().select(tankColumns).from(runTankResults)
@@ -204,6 +213,8 @@ export async function siteDetail(runId: string, siteId: string) {
     ...selectFigures(runSiteResults),
     expectedAnnualLossPd: runSiteResults.expectedAnnualLossPd, expectedAnnualLossBi: runSiteResults.expectedAnnualLossBi,
     radiusM: runSiteResults.radiusM, yearSummary: runSiteResults.yearSummary, eventBands: runSiteResults.eventBands,
+    // the bands and indices only: the per-evaluation series stay in the database
+    draws: sql<DrawsView | null>`${runSiteResults.draws} - 'series'`,
     site: runSiteSnapshots.site, facts: runSiteSnapshots.facts,
   }).from(runSiteResults)
     .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))
@@ -215,6 +226,7 @@ export async function siteDetail(runId: string, siteId: string) {
     result: {
       figures: toFigures(row), lossSplit: lossSplit(row), radiusM: row.radiusM, eventBands: row.eventBands,
       yearSummary: row.yearSummary,
+      draws: row.draws ?? null,
     },
     site: row.site,
     facts: row.facts,

@@ -8,6 +8,7 @@ import type { runs } from '../db/schema'
 import type { PortfolioResult, SiteResult, TankResult } from './queries'
 import { addCautionSheet, addTableSheet, blankRow, decimalsFor, headingRow, newWorkbook, NUMBER_FORMATS, valueRow, type SheetColumn, type SummaryRow } from '../utils/sheets'
 import { workbookBytes } from '../utils/downloads'
+import type { DrawBands } from '../../shared/results/draws'
 
 export interface WorkbookInput {
   run: typeof runs.$inferSelect
@@ -29,6 +30,21 @@ export function modeLabel(run: Pick<typeof runs.$inferSelect, 'mode' | 'years' |
   return run.mode === 'year'
     ? `simulated years (${run.years} per site; storm clustering ${run.stormClustering ? 'on: nearby sites share storms' : 'off: sites independent'})`
     : `frequency (target relative standard error ${run.targetRse}; negligible-rate rule ${run.negligibleRatePerYear > 0 ? `${run.negligibleRatePerYear} /yr` : 'off'})`
+}
+
+/** Columns of the assumption band (5 % and 95 % across draws; empty for runs without draws). */
+function bandColumns(freq: string, c: string): SheetColumn[] {
+  const note = 'Assumption band: 5 % / 95 % points across the draws of the uncertain assumptions (empty: no assumption draws) — not the simulation interval.'
+  return [
+    { header: 'Expected fires, assumption band 5 %, /yr', key: 'bIgn05', unit: 'fires per year', numFmt: freq, note },
+    { header: 'Expected fires, assumption band 95 %, /yr', key: 'bIgn95', unit: 'fires per year', numFmt: freq, note },
+    { header: `AAL, assumption band 5 %, ${c}/yr`, key: 'bEal05', unit: `${c} per year`, numFmt: MONEY, note },
+    { header: `AAL, assumption band 95 %, ${c}/yr`, key: 'bEal95', unit: `${c} per year`, numFmt: MONEY, note },
+  ]
+}
+
+function bandCells(b: DrawBands | null) {
+  return { bIgn05: b?.ignition.p05 ?? null, bIgn95: b?.ignition.p95 ?? null, bEal05: b?.expectedAnnualLoss.p05 ?? null, bEal95: b?.expectedAnnualLoss.p95 ?? null }
 }
 
 export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer> {
@@ -53,6 +69,18 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
     rows.push({ cells: [`Aggregate loss (year total) at ${T} years, ${c}`, row?.loss ?? null, iv?.lo ?? null, iv?.hi ?? null], numFmt: MONEY })
   }
   const tail = ys?.aggregate.find(r => r.returnPeriodYears === 250)?.tailValueAtRisk ?? null
+  // Assumption uncertainty, apart from the simulation interval above.
+  const d = p.draws
+  rows.push(blankRow, headingRow(d ? `Assumption band across ${d.draws} draws of the uncertain assumptions` : 'Assumption band: no assumption draws in this run'))
+  if (d) {
+    rows[rows.length - 1]!.cells.push('5 %', '50 %', '95 %')
+    const bandRow = (label: string, b: { p05: number, p50: number, p95: number }, numFmt: string) => ({ cells: [label, b.p05, b.p50, b.p95], numFmt })
+    rows.push(
+      bandRow('Expected fires, /yr', d.bands.ignition, freq), bandRow('Induced sparking, /yr', d.bands.sparking, freq),
+      bandRow('Direct strikes on tanks, /yr', d.bands.direct, freq), bandRow(`Average annual loss (AAL), ${c}/yr`, d.bands.expectedAnnualLoss, MONEY),
+    )
+  }
+  rows.push(blankRow)
   rows.push(
     valueRow(`Tail value-at-risk at 250 years, ${c}`, tail, MONEY),
     valueRow(`Average annual loss (AAL), property damage, ${c}/yr`, p.lossSplit ? p.lossSplit.propertyDamage : ONLY_TOTAL, MONEY),
@@ -77,7 +105,9 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
     { header: `Average annual loss (AAL), ${c}/yr`, key: 'eal', unit: `${c} per year`, numFmt: MONEY },
     { header: `AAL, property damage, ${c}/yr`, key: 'pd', unit: `${c} per year`, numFmt: MONEY }, { header: `AAL, business interruption, ${c}/yr`, key: 'bi', unit: `${c} per year`, numFmt: MONEY },
     { header: `Aggregate loss (year total) at 100 years, ${c}`, key: 'l100', unit: c, numFmt: MONEY },
+    ...bandColumns(siteFreq, c),
   ], input.sites.map(s => ({
+    ...bandCells(s.assumptionBands),
     pd: s.lossSplit?.propertyDamage ?? null, bi: s.lossSplit?.businessInterruption ?? null,
     name: s.facts.name, externalId: s.facts.externalId, operator: s.facts.operatorName, lat: s.facts.latitudeDeg, lon: s.facts.longitudeDeg,
     tanks: s.tanks, radius: s.radiusM, ign: s.figures.ignition.rate, ignLo: s.figures.ignition.lo, ignHi: s.figures.ignition.hi, spk: s.figures.sparking.rate, dir: s.figures.direct.rate, eal: s.figures.expectedAnnualLoss.rate, l100: s.lossAt100,
@@ -97,12 +127,14 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
     { header: 'Expected fires, 95 % interval, /yr', key: 'ignText', unit: 'fires per year', width: 30 },
     { header: 'Direct strikes in the simulated years, count', key: 'dirN', unit: 'count', numFmt: NUMBER_FORMATS.count }, { header: 'Induced sparks in the simulated years, count', key: 'spkN', unit: 'count', numFmt: NUMBER_FORMATS.count },
     { header: 'Fires in the simulated years, count', key: 'ignN', unit: 'count', numFmt: NUMBER_FORMATS.count },
+    ...bandColumns(tankFreq, c),
   ]
   addTableSheet(wb, 'Tanks', tankColumns, input.tanks.map((t) => {
     // A figure stopped by the negligible-rate rule has no lower end: its "hi" is an upper bound.
     const f = t.figures
     const bounded = (['sparking', 'ignition', 'expectedAnnualLoss'] as const).filter(k => f[k].upperBoundOnly)
     return {
+      ...bandCells(t.draws?.bands ?? null),
       pd: t.lossSplit?.propertyDamage ?? null, bi: t.lossSplit?.businessInterruption ?? null,
       site: siteName.get(t.siteId), tag: t.tag, ign: f.ignition.rate, ignLo: f.ignition.upperBoundOnly ? null : f.ignition.lo, ignHi: f.ignition.hi,
       spk: f.sparking.rate, spkLo: f.sparking.upperBoundOnly ? null : f.sparking.lo, spkHi: f.sparking.hi, dir: f.direct.rate, eal: f.expectedAnnualLoss.rate, cls: t.drivingComponentClass ?? '', samples: t.samples,
@@ -124,6 +156,18 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
     })))
   } else {
     wb.addWorksheet('Exceedance').getCell(1, 1).value = 'Exceedance tables come from simulated-years runs; this run estimated frequencies.'
+  }
+
+  if (d) {
+    addTableSheet(wb, 'Sensitivity', [
+      { header: 'Figure', key: 'metric', unit: '', width: 24 }, { header: 'Rank', key: 'rank', unit: 'count', numFmt: NUMBER_FORMATS.count },
+      { header: 'Uncertain assumption', key: 'label', unit: '', width: 60 }, { header: 'Path', key: 'path', unit: '', width: 40 },
+      { header: 'Total-effect index', key: 'st', unit: 'share of variance', numFmt: '0.000' }, { header: 'Total effect, standard error', key: 'stSe', unit: 'share of variance', numFmt: '0.000' },
+      { header: 'First-order index', key: 's1', unit: 'share of variance', numFmt: '0.000' }, { header: 'First order, standard error', key: 's1Se', unit: 'share of variance', numFmt: '0.000' },
+    ], d.sensitivity.flatMap(r => r.indices.map((i, k) => ({
+      metric: r.metric === 'aal' ? 'Average annual loss' : 'Expected fires', rank: k + 1, label: i.label, path: i.path,
+      st: i.totalEffect.estimate, stSe: i.totalEffect.se, s1: i.firstOrder.estimate, s1Se: i.firstOrder.se,
+    }))))
   }
 
   addTableSheet(wb, 'Assumptions', [

@@ -14,6 +14,7 @@ import { siteEventBands, type SiteEventBands } from '../../shared/engine/heatmap
 import { prepareSiteOnce, type SitePreparation } from '../../shared/engine/prepared'
 import { threadId } from 'node:worker_threads'
 import { epochMs, type SiteThreadTiming } from './timing'
+import { computeSiteDraws, type SiteDraws } from './draws'
 
 export type RunMode = 'frequency' | 'year'
 
@@ -29,6 +30,8 @@ export interface SiteTask {
   years: number
   /** Year mode with storm clustering: the site's place in the run's storm field; null otherwise. */
   clustering: SiteClustering | null
+  /** Assumption uncertainty: K draws (0: none). Frequency mode only. */
+  assumptionDraws?: number
 }
 
 /**
@@ -71,6 +74,8 @@ export interface SiteComputation {
   eventBands: SiteEventBands
   /** Where the thread's time went (ms, measured on the thread): compiling the site, the figures, the event bands. */
   timing: SiteTiming
+  /** Runs with assumption draws: bands and sensitivity of the site and of its tanks; null otherwise. */
+  draws: SiteDraws | null
 }
 
 export interface SiteTiming extends SiteThreadTiming {
@@ -97,10 +102,16 @@ export function computeSite(task: SiteTask): SiteComputation {
   const t2 = performance.now()
   const eventBands = siteEventBands(checked.site, checked.assumptions, { runSeed: checked.runSeed, samples: EVENT_BAND_SAMPLES }, prepared)
   const t3 = performance.now()
-  return { ...figures, eventBands, timing: { threadId, startedAt, endedAt: epochMs(), prepareMs: t1 - t0, figuresMs: t2 - t1, eventBandsMs: t3 - t2 } }
+  // Assumption draws count as figures in the timing (they are the same figures, K times over).
+  const draws = checked.mode === 'frequency' && (checked.assumptionDraws ?? 0) > 0
+    ? computeSiteDraws(checked.site, checked.assumptions, checked.assumptionDraws!, checked.runSeed, figures.tanks.map(t => ({
+        direct: t.direct.rate, sparking: t.sparking.rate, ignition: t.ignition.rate, expectedAnnualLoss: t.expectedAnnualLoss.rate,
+      })))
+    : null
+  return { ...figures, eventBands, draws, timing: { threadId, startedAt, endedAt: epochMs(), prepareMs: t1 - t0, figuresMs: t2 - t1 + (performance.now() - t3), eventBandsMs: t3 - t2 } }
 }
 
-type SiteFigures = Omit<SiteComputation, 'eventBands' | 'timing'>
+type SiteFigures = Omit<SiteComputation, 'eventBands' | 'timing' | 'draws'>
 
 function computeFrequency(task: SiteTask, prepared: SitePreparation): SiteFigures {
   const r = simulateSiteFrequency(task.site, task.assumptions, {

@@ -23,7 +23,7 @@ export async function queueDemoRuns(): Promise<string[]> {
     if (!version) continue
     const run = await startRun({
       portfolioId: row.portfolioId, assumptionVersionId: version.id, mode: 'year', seed: DEMO_SEED,
-      targetRse: 0.02, maxSamplesPerTank: 400_000, negligibleRatePerYear: 1e-5, years: 10_000, chunkSize: 10, stormClustering: false,
+      targetRse: 0.02, maxSamplesPerTank: 400_000, negligibleRatePerYear: 1e-5, years: 10_000, chunkSize: 10, stormClustering: false, assumptionDraws: 0,
     }, { userId: null, organisationId: row.organisationId })
     started.push(run.id)
   }

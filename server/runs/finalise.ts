@@ -3,7 +3,12 @@ import { and, asc, eq, inArray } from 'drizzle-orm'
 import { sortDescending, STANDARD_RETURN_PERIODS, summariseYearLosses } from '../../shared/engine/exceedance'
 import { returnPeriodLossInterval } from './quantile-interval'
 import { useDb, type Database } from '../db'
-import { runPortfolioResults, runs, runSiteResults } from '../db/schema'
+import { assumptionSetVersions, runPortfolioResults, runs, runSiteResults } from '../db/schema'
+import { parseAssumptions, type AssumptionSet } from '../../shared/engine/assumptions'
+import { evaluationCount } from '../../shared/engine/draws'
+import { bandOf, DRAW_METRICS, drawsOf, sensitivityOf, type DrawBands, type DrawMetric } from '../../shared/engine/draw-figures'
+import type { StoredPortfolioDraws } from '../../shared/results/draws'
+import { decodeSeries, runDrawPlan } from './draws'
 import type { Figure } from './compute'
 import { decodeEvents } from './events-codec'
 import { sitesIndependentYears } from '../../shared/engine/storm-clusters'
@@ -72,6 +77,35 @@ function withIntervals<T extends object>(summary: T, table: { yearLosses: Float6
   return { ...summary, intervals: { aggregate: intervals(aggregate), occurrence: intervals(occurrence) } }
 }
 
+/**
+ * Runs with assumption draws: the portfolio's figure per evaluation is the sum of the sites' (site-id
+ * order, a page at a time), its bands the 5/50/95 % points over the draws, its sensitivity indices
+ * from the whole design.
+ */
+async function portfolioDraws(tx: Database, runId: string, siteIds: string[], assumptions: AssumptionSet, draws: number, seed: number): Promise<StoredPortfolioDraws> {
+  const plan = runDrawPlan(assumptions, draws, seed)
+  const E = evaluationCount(plan)
+  const sums = Object.fromEntries(DRAW_METRICS.map(m => [m, new Float64Array(E)])) as Record<DrawMetric, Float64Array>
+  for (let i = 0; i < siteIds.length; i += EVENT_PAGE) {
+    const page = await tx.select({ draws: runSiteResults.draws }).from(runSiteResults)
+      .where(and(eq(runSiteResults.runId, runId), inArray(runSiteResults.siteId, siteIds.slice(i, i + EVENT_PAGE))))
+      .orderBy(asc(runSiteResults.siteId))
+    for (const row of page) {
+      if (!row.draws) continue
+      for (const m of DRAW_METRICS) {
+        const v = decodeSeries(row.draws.series[m], E)
+        const into = sums[m]
+        for (let e = 0; e < E; e++) into[e]! += v[e]!
+      }
+    }
+  }
+  return {
+    draws, evaluations: E, clamped: plan.clamped, leftOut: plan.leftOut,
+    bands: Object.fromEntries(DRAW_METRICS.map(m => [m, bandOf(drawsOf(sums[m], draws))])) as DrawBands,
+    sensitivity: [sensitivityOf(sums.ignition, plan, 'expectedFires', `${seed}|portfolio`), sensitivityOf(sums.expectedAnnualLoss, plan, 'aal', `${seed}|portfolio`)],
+  }
+}
+
 /** Returns true when this call finalised the run (only one caller ever does). */
 export async function finaliseRun(runId: string): Promise<boolean> {
   return useDb().transaction(async (tx) => {
@@ -115,7 +149,13 @@ export async function finaliseRun(runId: string): Promise<boolean> {
         yearSummary: summary,
       }
     }
+    let draws: StoredPortfolioDraws | null = null
+    if (run.assumptionDraws > 0 && run.mode === 'frequency') {
+      const [version] = await tx.select({ parameters: assumptionSetVersions.parameters }).from(assumptionSetVersions).where(eq(assumptionSetVersions.id, run.assumptionVersionId))
+      draws = await portfolioDraws(tx, runId, rows.map(r => r.siteId), parseAssumptions(version!.parameters), run.assumptionDraws, run.seed)
+    }
     await tx.insert(runPortfolioResults).values({
+      draws,
       runId,
       ...figureValues({ direct: values.direct, sparking: values.sparking, ignition: values.ignition, expectedAnnualLoss: values.eal }),
       expectedAnnualLossPd: values.pd, expectedAnnualLossBi: values.bi,

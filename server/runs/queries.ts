@@ -59,6 +59,7 @@ function present(row: { run: RunRow, requestedByName: string | null, setName: st
     assumptions: { versionId: run.assumptionVersionId, setName: row.setName, version: row.version },
     targetRse: run.targetRse, years: run.years, maxSamplesPerTank: run.maxSamplesPerTank, chunkSize: run.chunkSize,
     negligibleRatePerYear: run.negligibleRatePerYear, stormClustering: run.stormClustering, clusteringFrame: run.clusteringFrame,
+    assumptionDraws: run.assumptionDraws,
     tanksTotal: run.tanksTotal, chunksTotal: run.chunksTotal, chunksDone: run.chunksDone,
     inputHash: run.inputHash, engineVersion: run.engineVersion, errorMessage: run.errorMessage,
     requestedBy: row.requestedByName, retryOf: run.retryOf,

@@ -96,7 +96,8 @@ export function canonicalJson(value: unknown): string {
 
 export interface HashInputs {
   engineVersion: string
-  assumptions: AssumptionSet
+  /** The set's deciding parts (decidingAssumptions). */
+  assumptions: Partial<AssumptionSet>
   mode: string
   seed: number
   targetRse: number
@@ -106,7 +107,23 @@ export interface HashInputs {
   years: number
   /** Storm clustering's frame; absent when off (so runs hashed before the option keep their hash). */
   stormClustering?: ClusteringFrame
+  /** Assumption draws; absent when off, so runs without draws keep their hash. */
+  assumptionDraws?: number
   sites: SiteInput[]
+}
+
+/**
+ * The assumption set as it decides a run's results: the uncertainty matters only to a run with
+ * assumption draws, the storm clustering parameters only to a run with clustering on; a run without
+ * them hashes the same whatever they hold.
+ */
+export function decidingAssumptions(assumptions: AssumptionSet, options: { assumptionDraws: number, stormClustering: boolean }): Partial<AssumptionSet> {
+  const { uncertainty, stormClustering, ...rest } = assumptions
+  return {
+    ...rest,
+    ...(options.assumptionDraws > 0 ? { uncertainty } : {}),
+    ...(options.stormClustering ? { stormClustering } : {}),
+  }
 }
 
 /** sha-256 of everything that decides a run's results (chunk size and worker count do not). */

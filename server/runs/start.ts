@@ -3,7 +3,8 @@
 import { randomInt } from 'node:crypto'
 import { and, eq } from 'drizzle-orm'
 import { ENGINE_VERSION } from '../../shared/engine'
-import { parseAssumptions } from '../../shared/engine/assumptions'
+import { EngineInputError, parseAssumptions } from '../../shared/engine/assumptions'
+import { planAssumptionDraws } from '../../shared/engine/draws'
 import type { z } from 'zod'
 import { defaultRunName, type startRunSchema } from '../../shared/schemas/runs'
 import { useDb } from '../db'
@@ -14,7 +15,7 @@ import { recordAudit } from '../utils/audit'
 import { AppError } from '../utils/errors'
 import { recordRunTerms } from '../insurance/terms-store'
 import { readablePortfolio } from '../inventory/portfolio-access'
-import { inputHash, loadPortfolioSites } from './snapshot'
+import { decidingAssumptions, inputHash, loadPortfolioSites } from './snapshot'
 import { clusteringFrame } from '../../shared/engine/storm-clusters'
 
 export type StartRun = z.output<typeof startRunSchema>
@@ -39,10 +40,19 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
   const frame = stormClustering
     ? clusteringFrame(snapshot.map(s => ({ latitudeDeg: s.facts.latitudeDeg, longitudeDeg: s.facts.longitudeDeg, flashDensity: s.site.flashDensity })))
     : null
+  if (input.assumptionDraws > 0) {
+    if (input.mode !== 'frequency') throw new AppError(400, 'Assumption draws are available for frequency runs only (simulated years: not yet).')
+    // Refuse at the start what the draws cannot take (paths, correlations), with the engine's reasons.
+    try { planAssumptionDraws(assumptions, { draws: input.assumptionDraws, runSeed: seed }) } catch (error) {
+      // (illustrative ranges on assumptions the draws cannot carry are left out, not refused: the plan reports them)
+      if (error instanceof EngineInputError) throw new AppError(400, `Assumption draws: ${error.issues.join('; ')}`)
+      throw error
+    }
+  }
   const hash = inputHash({
     ...(stormClustering ? { stormClustering: frame! } : {}),
-    engineVersion: ENGINE_VERSION, assumptions, mode: input.mode, seed, targetRse: input.targetRse,
-    maxSamplesPerTank: input.maxSamplesPerTank, negligibleRatePerYear: input.negligibleRatePerYear, years: input.years, sites: snapshot.map(s => s.site),
+    engineVersion: ENGINE_VERSION, assumptions: decidingAssumptions(assumptions, { assumptionDraws: input.assumptionDraws, stormClustering }),
+    mode: input.mode, seed, targetRse: input.targetRse, maxSamplesPerTank: input.maxSamplesPerTank, negligibleRatePerYear: input.negligibleRatePerYear, years: input.years, ...(input.assumptionDraws > 0 ? { assumptionDraws: input.assumptionDraws } : {}), sites: snapshot.map(s => s.site),
   })
   const chunks: string[][] = []
   for (let i = 0; i < snapshot.length; i += input.chunkSize) chunks.push(snapshot.slice(i, i + input.chunkSize).map(s => s.site.id))
@@ -54,7 +64,7 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
       name: input.name?.trim() || defaultRunName(portfolio.name, new Date()),
       assumptionVersionId: version.v.id, mode: input.mode, seed,
       targetRse: input.targetRse, maxSamplesPerTank: input.maxSamplesPerTank, negligibleRatePerYear: input.negligibleRatePerYear,
-      years: input.years, chunkSize: input.chunkSize, stormClustering, clusteringFrame: frame,
+      years: input.years, assumptionDraws: input.assumptionDraws, chunkSize: input.chunkSize, stormClustering, clusteringFrame: frame,
       sitesTotal: snapshot.length, tanksTotal: snapshot.reduce((n, s) => n + s.site.tanks.length, 0), chunksTotal: chunks.length,
       inputHash: hash, engineVersion: ENGINE_VERSION, requestedBy: by.userId, retryOf: options.retryOf ?? null,
     }).returning()

@@ -35,13 +35,15 @@ export async function storeChunk(tx: Database, runId: string, chunkIndex: number
       yearSummary: s.yearSummary,
       events: s.events ? encodeEvents(s.events) : null,
       eventBands: s.eventBands,
+      draws: s.draws?.site ?? null,
     })
     if (s.tanks.length > 0) {
-      await tx.insert(runTankResults).values(s.tanks.map(t => ({
+      await tx.insert(runTankResults).values(s.tanks.map((t, i) => ({
         runId, siteId: s.siteId, tankId: t.tankId, tag: t.tag,
         ...tankFigureValues(t), ...split(t),
         upperBoundFigures: upperBounds(t),
         samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
+        draws: s.draws?.tanks[i] ?? null,
       })))
     }
   }

@@ -51,6 +51,7 @@ export async function workChunk(runId: string, chunkIndex: number, queuedAt: num
         clustering: run.mode === 'year' && run.stormClustering && run.clusteringFrame
           ? siteClustering(run.clusteringFrame, assumptions.stormClustering, snap.facts.latitudeDeg, snap.facts.longitudeDeg)
           : null,
+        assumptionDraws: run.assumptionDraws,
       })
       return { computation, submittedAt, resolvedAt: epochMs() }
     } catch (error) {

@@ -1,28 +1,10 @@
 // "What to calibrate next": the ranking of variance-based sensitivity indices and where each
 // assumption is calibrated (issue "How sure are we"). Pure functions for the SensitivityChart.
 //
-// The index shapes are those the engine's sensitivity estimator returns (shared/engine/sensitivity.ts
-// once it is merged; the same shape is stated here until then).
+// The index shapes are those the engine's sensitivity estimator returns (shared/engine/sensitivity.ts).
+import type { IndexEstimate, SensitivityIndex, SensitivityResult } from '../engine/sensitivity'
 
-export interface SensitivityEstimate { estimate: number; se: number }
-
-export interface SensitivityIndex {
-  /** Dotted path of the uncertain assumption (or `flashDensityFactor`). */
-  path: string
-  label: string
-  unit: string
-  /** First-order index S_i: the share of the output's variance due to this assumption alone. */
-  firstOrder: SensitivityEstimate
-  /** Total-effect index S_Ti: the share it accounts for with all its interactions. */
-  totalEffect: SensitivityEstimate
-}
-
-export interface SensitivityResult {
-  metric: 'expectedFires' | 'aal'
-  /** Base samples N of the estimator (its cost is N·(k + 2) evaluations). */
-  baseSamples: number
-  indices: SensitivityIndex[]
-}
+export type { SensitivityIndex, SensitivityResult } from '../engine/sensitivity'
 
 /** Whiskers at ±2 standard errors (about 95 % for a normal sampling error). */
 export const WHISKER_SE = 2
@@ -37,7 +19,7 @@ export interface RankedIndex extends SensitivityIndex {
   firstWithinNoise: boolean
 }
 
-const withinNoise = (e: SensitivityEstimate) => Math.abs(e.estimate) <= WHISKER_SE * e.se
+const withinNoise = (e: IndexEstimate) => Math.abs(e.estimate) <= WHISKER_SE * e.se
 
 /**
  * Ranked by total effect, largest first (the assumption that, fixed at its true value, would remove

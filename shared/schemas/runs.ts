@@ -32,6 +32,11 @@ export const startRunSchema = z.object({
    * sites share their bad years (each site's long-run rates unchanged). Frequency runs ignore it.
    */
   stormClustering: z.boolean('Storm clustering is on (true) or off (false).').default(false),
+  /**
+   * Assumption uncertainty: K draws of the uncertain assumptions (0: off; otherwise 50–500), frequency
+   * mode. Adds the 5–95 % assumption band and the sensitivity indices to the results.
+   */
+  assumptionDraws: z.number().int('Draws are a whole number.').refine(v => v === 0 || (v >= 50 && v <= 500), 'Assumption draws are 0 (off) or 50–500.').default(0),
   /** Sites per chunk of work; results do not depend on it. */
   chunkSize: z.number().int().min(1, 'A chunk holds at least one site.').max(1000, 'A chunk holds at most 1,000 sites.').default(20),
 })

@@ -7,14 +7,14 @@ import type { runs } from '../../server/db/schema'
 const run = {
   id: '00000000-0000-4000-8000-000000000001', organisationId: '00000000-0000-4000-8000-000000000002', portfolioId: '00000000-0000-4000-8000-000000000003',
   portfolioName: 'Harbour fleet', assumptionVersionId: '00000000-0000-4000-8000-000000000004', mode: 'year', seed: 42, targetRse: 0.02, maxSamplesPerTank: 1000,
-  negligibleRatePerYear: 1e-5, years: 10_000, stormClustering: false, clusteringFrame: null, chunkSize: 20, state: 'succeeded', sitesTotal: 3, sitesDone: 3, tanksTotal: 9, chunksTotal: 1, chunksDone: 1,
+  negligibleRatePerYear: 1e-5, years: 10_000, stormClustering: false, clusteringFrame: null, assumptionDraws: 0, chunkSize: 20, state: 'succeeded', sitesTotal: 3, sitesDone: 3, tanksTotal: 9, chunksTotal: 1, chunksDone: 1,
   inputHash: 'ab', engineVersion: '2.0.0', errorMessage: null, requestedBy: null, retryOf: null, name: 'Harbour fleet, 2026-03-14', isReference: false,
   createdAt: new Date('2026-03-14T09:00:00Z'), startedAt: new Date('2026-03-14T09:00:01Z'), finishedAt: new Date('2026-03-14T09:05:00Z'),
 } satisfies typeof runs.$inferSelect
 const figure = (rate: number) => ({ rate, lo: rate * 0.9, hi: rate * 1.1, se: rate * 0.05, count: null, upperBoundOnly: false })
 const portfolio: PortfolioResult = {
   figures: { direct: figure(0.02), sparking: figure(0.5), ignition: figure(0.1), expectedAnnualLoss: figure(123_456) },
-  lossSplit: { propertyDamage: 100_000, businessInterruption: 23_456 }, yearSummary: null,
+  lossSplit: { propertyDamage: 100_000, businessInterruption: 23_456 }, yearSummary: null, draws: null,
 }
 
 describe('the run-ended e-mail (one name per thing, issue #18)', () => {

@@ -8,6 +8,7 @@ import type { StoredYearSummary } from '../../results/queries'
 import type { SiteFacts } from '../../runs/snapshot'
 import type { SiteInput } from '../../../shared/engine/types'
 import type { ClusteringFrame } from '../../../shared/engine/storm-clusters'
+import type { StoredPortfolioDraws, StoredSiteDraws, StoredTankDraws } from '../../../shared/results/draws'
 
 const bytea = customType<{ data: Buffer, driverData: Buffer }>({ dataType: () => 'bytea' })
 
@@ -74,6 +75,8 @@ export const runs = pgTable('runs', {
    * Ng of its sites (flashes/km²/yr), fixed at start so every chunk sees the same storms. Null when off.
    */
   clusteringFrame: jsonb('clustering_frame').$type<ClusteringFrame>(),
+  /** Assumption uncertainty: K draws of the uncertain assumptions (0: no draws; runs before the option had none). */
+  assumptionDraws: integer('assumption_draws').notNull().default(0),
   chunkSize: integer('chunk_size').notNull(),
   state: runState('state').notNull().default('queued'),
   sitesTotal: integer('sites_total').notNull(),
@@ -142,6 +145,8 @@ export const runTankResults = pgTable('run_tank_results', {
   samples: bigint('samples', { mode: 'number' }).notNull(),
   drivingComponentClass: text('driving_component_class'),
   converged: boolean('converged').notNull(),
+  /** Runs with assumption draws: the 5/50/95 % points of the four figures across draws; null: no draws. */
+  draws: jsonb('draws').$type<StoredTankDraws>(),
 }, t => [
   primaryKey({ columns: [t.runId, t.tankId] }),
   index('run_tank_results_site_idx').on(t.runId, t.siteId),
@@ -164,6 +169,8 @@ export const runSiteResults = pgTable('run_site_results', {
   events: bytea('events'),
   /** Share of events by current band × distance band (site heatmap). */
   eventBands: jsonb('event_bands'),
+  /** Runs with assumption draws: bands, sensitivity indices and the per-evaluation figures the portfolio adds; null: no draws. */
+  draws: jsonb('draws').$type<StoredSiteDraws>(),
 }, t => [
   primaryKey({ columns: [t.runId, t.siteId] }),
   index('run_site_results_ignition_idx').on(t.runId, t.ignitionRate),
@@ -177,6 +184,8 @@ export const runPortfolioResults = pgTable('run_portfolio_results', {
   ...lossSplitColumns(),
   /** Year mode: AAL, aggregate/occurrence losses at 10…1000 years, TVaR and the curves. */
   yearSummary: jsonb('year_summary').$type<StoredYearSummary>(),
+  /** Runs with assumption draws: the portfolio's bands and sensitivity indices; null: no draws. */
+  draws: jsonb('draws').$type<StoredPortfolioDraws>(),
   computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
 })
 

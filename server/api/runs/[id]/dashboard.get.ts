@@ -17,9 +17,11 @@ export default defineEventHandler(async (event) => {
     if (!portfolio) notFound('Results of this run')
     const summary = portfolio.yearSummary
     return {
-      run: { id: run.id, mode: run.mode, stormClustering: run.stormClustering, seed: run.seed, portfolioId: run.portfolioId, portfolioName: run.portfolioName, finishedAt: run.finishedAt, years: run.years, engineVersion: run.engineVersion, inputHash: run.inputHash },
+      run: { id: run.id, mode: run.mode, stormClustering: run.stormClustering, seed: run.seed, portfolioId: run.portfolioId, portfolioName: run.portfolioName, finishedAt: run.finishedAt, years: run.years, engineVersion: run.engineVersion, inputHash: run.inputHash, assumptionDraws: run.assumptionDraws },
       currency: member.currency,
       headline: headline(portfolio.figures, portfolio.lossSplit, summary),
+      /** Assumption uncertainty: 5/50/95 % across K draws and the sensitivity indices; null: no assumption draws. */
+      assumptionBands: portfolio.draws ? { draws: portfolio.draws.draws, bands: portfolio.draws.bands, sensitivity: portfolio.draws.sensitivity, leftOut: portfolio.draws.leftOut ?? [] } : null,
       exceedance: exceedanceSeries(summary, run.portfolioName),
       accumulation: accumulationOf(summary),
       returnPeriods: summary ? { aggregate: summary.aggregate, occurrence: summary.occurrence, intervals: summary.intervals ?? null } : null,

@@ -11,7 +11,7 @@ export default defineEventHandler(async (event) => {
   const again = await startRun({
     portfolioId: run.portfolioId, assumptionVersionId: run.assumptions.versionId, mode: run.mode, seed: run.seed,
     targetRse: run.targetRse, years: run.years, maxSamplesPerTank: run.maxSamplesPerTank, chunkSize: run.chunkSize,
-    negligibleRatePerYear: run.negligibleRatePerYear, stormClustering: run.stormClustering,
+    negligibleRatePerYear: run.negligibleRatePerYear, stormClustering: run.stormClustering, assumptionDraws: run.assumptionDraws,
   }, { userId: member.user.id, organisationId: member.organisationId, via: auditVia(event) }, { retryOf: id })
   setResponseStatus(event, 201)
   return again

@@ -12,7 +12,7 @@ export default defineEventHandler(async (event) => {
   const detail = await siteDetail(run.id, siteId)
   if (!detail) notFound('Site in this run')
   return {
-    run: { id: run.id, mode: run.mode, seed: run.seed, portfolioName: run.portfolioName, assumptionVersionId: run.assumptionVersionId },
+    run: { id: run.id, mode: run.mode, seed: run.seed, portfolioName: run.portfolioName, assumptionVersionId: run.assumptionVersionId, assumptionDraws: run.assumptionDraws },
     currency: member.currency,
     facts: detail.facts,
     site: detail.site,
@@ -20,6 +20,8 @@ export default defineEventHandler(async (event) => {
     exceedance: exceedanceSeries(detail.result.yearSummary, detail.facts.name),
     eventBands: detail.result.eventBands,
     radiusM: detail.result.radiusM,
+    /** Assumption uncertainty: the site's 5/50/95 % points across draws and its sensitivity indices; null: no assumption draws. */
+    assumptionBands: detail.result.draws,
     spread: await runSpreadNeighbours(run, detail.site),
     // Each figure is the shared result figure (shared/results/figure.ts): simulated-years runs carry
     // the whole counts behind the rates (Garwood intervals; null in frequency mode), and a figure the
@@ -29,6 +31,7 @@ export default defineEventHandler(async (event) => {
       lossSplit: t.lossSplit,
       ...t.figures,
       samples: t.samples, drivingComponentClass: t.drivingComponentClass, converged: t.converged,
+      assumptionBands: t.draws?.bands ?? null,
     })),
   }
 })

@@ -1,0 +1,70 @@
+// Assumption-draws benchmark (issue "How sure are we"). Prints the cost of K draws over the
+// 5,000-tank engine benchmark portfolio (bench/engine-portfolio.ts) against K single runs.
+//   npx tsx bench/draws.ts [--sites N] [--draws K]     (wire as `npm run bench:draws`)
+// A "single run" is the central frequency-mode figure of every site (simulateSiteFrequency at
+// 2 % RSE, what a run without draws computes); "draws" is what a run with draws adds: the shared
+// flashes, every evaluation of the design (central, A, B, A_B^g) and the bands and indices.
+// Times are CPU seconds of this single-threaded process, wall beside them.
+import { parseAssumptions } from '../shared/engine/assumptions'
+import { simulateSiteFrequency } from '../shared/engine/frequency'
+import { planAssumptionDraws, evaluationCount } from '../shared/engine/draws'
+import { DRAW_FLASHES_PER_SITE, siteDrawValues, summariseSiteDraws } from '../shared/engine/draw-figures'
+import { generatePortfolio } from './engine-portfolio'
+
+const arg = (name: string, fallback: number) => {
+  const i = process.argv.indexOf(name)
+  return i > 0 ? Number(process.argv[i + 1]) : fallback
+}
+const SITES = arg('--sites', 1000)
+const K = arg('--draws', 100)
+
+function timed<T>(f: () => T): { value: T; cpu: number; wall: number } {
+  const c0 = process.cpuUsage()
+  const w0 = performance.now()
+  const value = f()
+  const c = process.cpuUsage(c0)
+  return { value, cpu: (c.user + c.system) / 1e6, wall: (performance.now() - w0) / 1000 }
+}
+const line = (label: string, text: string) => console.log(`${label.padEnd(52)} ${text}`)
+
+// Illustrative uncertainty of the kind the assumptions page offers: sparking levels and scatter,
+// flash density, the current law, ignition, damage and spread (invented ranges for the benchmark).
+const L = (path: string, median: number, sigmaLn: number) => ({ path, distribution: { kind: 'lognormal' as const, median, sigmaLn }, basis: 'illustrative' as const, note: 'benchmark' })
+const U = (path: string, min: number, max: number) => ({ path, distribution: { kind: 'uniform' as const, min, max }, basis: 'illustrative' as const, note: 'benchmark' })
+const assumptions = parseAssumptions({ uncertainty: {
+  entries: [
+    L('flashDensityFactor', 1, 0.25),
+    L('thresholds.sharp_device.u50Kv', 70, 0.25), U('thresholds.sharp_device.sigma', 0.2, 0.4),
+    L('thresholds.grounded_pipe.u50Kv', 100, 0.25), L('thresholds.rounded_conductor.u50Kv', 140, 0.25), L('thresholds.carbon_fibre.u50Kv', 90, 0.25),
+    L('powerLawMedianKa', 31, 0.08),
+    U('ignitionGivenSpark.crude', 0.15, 0.45), U('ignitionGivenSpark.condensate', 0.2, 0.6),
+    U('damageRatio.replacement.mean', 0.5, 0.85), U('fireSpread.probabilityAtContact', 0.1, 0.4),
+  ],
+  correlations: [{ a: 'thresholds.sharp_device.u50Kv', b: 'thresholds.sharp_device.sigma', rho: -0.3 }],
+} })
+
+const all = generatePortfolio(1000, 5000)
+const sites = all.slice(0, SITES)
+const tanks = sites.reduce((n, s) => n + s.tanks.length, 0)
+console.log(`assumption draws: ${sites.length} sites / ${tanks} tanks of the 5,000-tank benchmark portfolio, K = ${K}`)
+const plan = timed(() => planAssumptionDraws(assumptions, { draws: K, runSeed: 1 }))
+line('draw plan (matrices A, B, A_B^g; validated sets)', `${plan.cpu.toFixed(2)} s CPU, ${plan.value.factors.length} factors, ${evaluationCount(plan.value)} evaluations, ${plan.value.clamped} sd clamped`)
+
+const central = timed(() => sites.map((s) => simulateSiteFrequency(s, assumptions, { runSeed: 1 })))
+line('single run (central figures, 2 % RSE)', `${central.cpu.toFixed(1)} s CPU (${central.wall.toFixed(1)} s wall)`)
+
+// Bands only: the plan's A rows; then the full design with the sensitivity indices.
+const bandsOnly = { ...plan.value, b: [], ab: [], factors: [] }
+const bands = timed(() => sites.map((s) => siteDrawValues(s, bandsOnly, { runSeed: 1 })))
+line(`bands only (${K} draws + central, ${DRAW_FLASHES_PER_SITE} shared flashes per site)`, `${bands.cpu.toFixed(1)} s CPU (${bands.wall.toFixed(1)} s wall)`)
+const full = timed(() => sites.map((s, i) => {
+  const v = siteDrawValues(s, plan.value, { runSeed: 1 })
+  const c = central.value[i]!.tanks.map((t) => ({ direct: t.direct.rate, sparking: t.sparking.rate, ignition: t.ignition.rate, expectedAnnualLoss: t.expectedAnnualLoss.rate }))
+  return summariseSiteDraws(v, c, plan.value, `1|${s.id}`)
+}))
+line('bands + sensitivity (the whole design, as a run does)', `${full.cpu.toFixed(1)} s CPU (${full.wall.toFixed(1)} s wall)`)
+const kSingle = K * central.cpu
+line('cost ÷ (K single runs), bands only', `${(bands.cpu / kSingle).toFixed(3)} (target ≤ 0.2)`)
+line('cost ÷ (K single runs), bands + sensitivity', `${(full.cpu / kSingle).toFixed(3)} (target ≤ 0.2)`)
+const flashes = bands.value.reduce((n, v) => n + v.flashes, 0)
+line('shared flashes kept', `${flashes} (${(flashes / sites.length).toFixed(0)} per site of ${DRAW_FLASHES_PER_SITE})`)
