@@ -183,7 +183,10 @@ export function simulateSiteFrequency(site: SiteInput, assumptions: AssumptionSe
   const ps = prepared.ps
   const radiusM = siteRadius(ps)
   const estimated = site.tanks.map((tank, t) => estimateTank(ps, t, createStream(options.runSeed, site.id, `frequency/${tank.id}`), options))
-  const losses = frequencyLosses(estimated.map((r) => r.ignition), ps.expectedLoss, estimateSpreadLosses(ps, options.runSeed, undefined, prepared))
+  const spread = estimateSpreadLosses(ps, options.runSeed, undefined, prepared, {
+    targetRse: options.targetRse ?? 0.02, ownLossPerYear: estimated.map((r, t) => r.ignition.rate * ps.expectedLoss[t]!.total),
+  })
+  const losses = frequencyLosses(estimated.map((r) => r.ignition), ps.expectedLoss, spread)
   const tanks = estimated.map((r, t) => {
     // A loss built on an ignition figure stopped by the negligible-rate rule is an upper bound too:
     // its own fires are bounded through the ignition bound, spread from neighbours is added as estimated.

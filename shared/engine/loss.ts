@@ -64,8 +64,18 @@ export function exactDamageRatioQuantile(d: DamageRatio, u: number): number {
 // schema admits (checked against jstat in the tests).
 const QUANTILE_NODES = 1024
 const quantileTables = new Map<string, Float64Array>()
+/** The table of each damage-ratio object seen, with the (mean, sd) it was built for: no key text per fire. */
+const tablesByRatio = new WeakMap<DamageRatio, { mean: number; sd: number; table: Float64Array }>()
 
 function quantileTable(d: DamageRatio): Float64Array {
+  const known = tablesByRatio.get(d)
+  if (known && known.mean === d.mean && known.sd === d.sd) return known.table
+  const table = quantileTableByValue(d)
+  tablesByRatio.set(d, { mean: d.mean, sd: d.sd, table })
+  return table
+}
+
+function quantileTableByValue(d: DamageRatio): Float64Array {
   const key = `${d.mean}|${d.sd}`
   let table = quantileTables.get(key)
   if (!table) {
@@ -81,7 +91,8 @@ function quantileTable(d: DamageRatio): Float64Array {
 
 /** The damage ratio at probability level u ∈ (0, 1): the beta quantile (tabulated), or the mean when constant. */
 export function damageRatioQuantile(d: DamageRatio, u: number): number {
-  if (betaShape(d) === null) return d.mean
+  // betaShape(d) === null, without building its object (this runs for every simulated fire).
+  if (d.sd === 0 || d.mean <= 0 || d.mean >= 1) return d.mean
   const x = u * QUANTILE_NODES
   if (x < 1 || x >= QUANTILE_NODES - 1) return exactDamageRatioQuantile(d, u)
   const table = quantileTable(d)
@@ -102,10 +113,15 @@ function tankLoss(parts: Record<LossComponent, number>): TankLoss {
  * so each component stays within its value and the tank within its value at risk.
  */
 export function burningTankLoss(tank: Pick<TankInput, 'replacementValue' | 'contentsValue' | 'cleanupCost' | 'interruptionCost'>, a: Pick<AssumptionSet, 'damageRatio'>, u: number): TankLoss {
-  const values = componentValues(tank)
-  const parts = {} as Record<LossComponent, number>
-  for (const c of LOSS_COMPONENTS) parts[c] = values[c] * damageRatioQuantile(a.damageRatio[c], u)
-  return tankLoss(parts)
+  // Written out per component (the same products and sums as componentValues × damageRatioQuantile
+  // through tankLoss): one object per fire instead of four.
+  const dr = a.damageRatio
+  const replacement = tank.replacementValue * damageRatioQuantile(dr.replacement, u)
+  const contents = tank.contentsValue * damageRatioQuantile(dr.contents, u)
+  const cleanup = tank.cleanupCost * damageRatioQuantile(dr.cleanup, u)
+  const interruption = tank.interruptionCost * damageRatioQuantile(dr.interruption, u)
+  const propertyDamage = replacement + contents + cleanup
+  return { replacement, contents, cleanup, interruption, propertyDamage, businessInterruption: interruption, total: propertyDamage + interruption }
 }
 
 /**

@@ -21,11 +21,23 @@ export interface SpreadLossEstimate {
   varBusinessInterruption: Float64Array
 }
 
-/** Candidate flashes drawn for the spread estimate of one site. */
+/** Most candidate flashes drawn for the spread estimate of one site (all of them when no stopping rule is given). */
 export const SPREAD_SAMPLES = 40_000
+/** Candidates per batch of the stopping rule; the first look comes after one batch. */
+export const SPREAD_BATCH = 4_000
 
-/** `prepared`: the task's compiled site of `ps`, whose envelope is then built once for every figure. */
-export function estimateSpreadLosses(ps: PreparedSite, runSeed: number | string, samples = SPREAD_SAMPLES, prepared: SitePreparation = preparationOf(ps)): SpreadLossEstimate {
+/**
+ * Stopping rule: stop after a batch once, for every tank, the standard error of its spread loss is
+ * at most `targetRse` of its whole expected annual loss (`ownLossPerYear[j]`, its own fires, plus
+ * the spread estimate): the spread part then adds less than the run's target to the tank's error.
+ */
+export interface SpreadStopping { targetRse: number; ownLossPerYear: ArrayLike<number> }
+
+/**
+ * `prepared`: the task's compiled site of `ps`, whose envelope is then built once for every figure.
+ * `stopping`: draw in batches of SPREAD_BATCH up to `samples` and stop by that rule; without it, all `samples`.
+ */
+export function estimateSpreadLosses(ps: PreparedSite, runSeed: number | string, samples = SPREAD_SAMPLES, prepared: SitePreparation = preparationOf(ps), stopping?: SpreadStopping): SpreadLossEstimate {
   const n = ps.nTanks
   const out: SpreadLossEstimate = {
     propertyDamage: new Float64Array(n), businessInterruption: new Float64Array(n),
@@ -41,7 +53,10 @@ export function estimateSpreadLosses(ps: PreparedSite, runSeed: number | string,
   const escape = new Float64Array(n)
   const sum = new Float64Array(n)
   const sum2 = new Float64Array(n)
+  let drawn = 0
   for (let s = 0; s < samples; s++) {
+    if (stopping && s > 0 && s % SPREAD_BATCH === 0 && spreadSettled(ps, env.totalRate, sum, sum2, s, stopping)) break
+    drawn = s + 1
     drawCandidate(ps, env, rand, flash)
     const attached = attachFlash(ps, flash.x, flash.y, strikeRadius(ps, flash.lnI))
     const none = siteEventProbabilities(ps, flash.currentKa, flash.lnI, attached, flash.x, flash.y, p)
@@ -61,6 +76,7 @@ export function estimateSpreadLosses(ps: PreparedSite, runSeed: number | string,
     }
   }
   const rate = env.totalRate
+  if (drawn > 0) samples = drawn
   for (let j = 0; j < n; j++) {
     const mean = sum[j]! / samples
     const variance = samples > 1 ? Math.max(0, (sum2[j]! - samples * mean * mean) / (samples - 1)) / samples : 0
@@ -72,4 +88,17 @@ export function estimateSpreadLosses(ps: PreparedSite, runSeed: number | string,
     out.varBusinessInterruption[j] = (rate * bi) ** 2 * variance
   }
   return out
+}
+
+/** The stopping rule after `samples` candidates (see SpreadStopping). */
+function spreadSettled(ps: PreparedSite, rate: number, sum: Float64Array, sum2: Float64Array, samples: number, stopping: SpreadStopping): boolean {
+  for (let j = 0; j < ps.nTanks; j++) {
+    if (sum[j] === 0) continue
+    const loss = ps.expectedLoss[j]!.propertyDamage + ps.expectedLoss[j]!.businessInterruption
+    const mean = sum[j]! / samples
+    const variance = Math.max(0, (sum2[j]! - samples * mean * mean) / (samples - 1)) / samples
+    const se = rate * loss * Math.sqrt(variance)
+    if (se > stopping.targetRse * (stopping.ownLossPerYear[j]! + rate * loss * mean)) return false
+  }
+  return true
 }
