@@ -20,7 +20,7 @@ import { assumptionParameterMeta, assumptionSetSchema, EngineInputError } from '
 import { SPEED_OF_LIGHT_M_PER_S } from './induction'
 import { normalCdf, normalQuantile } from './normal'
 import { createStream } from './random'
-import type { UncertainAssumption, UncertainDistribution } from './uncertainty-types'
+import { emptyUncertainty, type UncertainAssumption, type UncertainDistribution } from './uncertainty-types'
 
 /** Reserved path: a multiplier on every site's flash density Ng (median 1), for the Ng calibrations' uncertainty. */
 export const FLASH_DENSITY_FACTOR_PATH = 'flashDensityFactor'
@@ -281,7 +281,9 @@ export function planAssumptionDraws(central: AssumptionSet, options: { draws: nu
       const limit = Math.sqrt(c.mean * (1 - c.mean))
       if (c.sd > 0 && c.sd >= limit) { c.sd = 0.99 * limit; clamped++ }
     }
-    set.uncertainty = central.uncertainty
+    // A drawn set is one point of the uncertainty, not a description of it: it carries none (its
+    // value may lie in a tail beyond the 0.1–99.9 % range the set's own check asks of a central value).
+    set.uncertainty = emptyUncertainty()
     const checked = assumptionSetSchema.safeParse(set)
     if (!checked.success) throw EngineInputError.fromZod('A drawn assumption set is invalid (narrow the uncertainty)', checked.error)
     return { draw: { assumptions: checked.data, flashDensityFactor: factor }, values }

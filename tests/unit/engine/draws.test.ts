@@ -52,7 +52,9 @@ describe('the sensitivity estimator on the Ishigami function', () => {
 
 describe('draws honour correlations and bounds', () => {
   const K = 400
-  const set = parseAssumptions({ uncertainty: {
+  // The crude value sits near its upper bound so that the truncation at 1 is exercised (an
+  // uncertainty must cover its set's value).
+  const set = parseAssumptions({ ignitionGivenSpark: { crude: 0.95 }, uncertainty: {
     entries: [
       lognormal('thresholds.sharp_device.u50Kv', 70, 0.2),
       lognormal('thresholds.grounded_pipe.u50Kv', 100, 0.3),
@@ -111,7 +113,12 @@ describe('draws honour correlations and bounds', () => {
     for (const d of plan.a) expect(d.assumptions.strikingDistanceA).toBe(10)
   })
   it('a damage-ratio sd too large for a drawn mean is clamped, and every drawn set is valid', () => {
-    const s = parseAssumptions({ damageRatio: { replacement: { mean: 0.7, sd: 0.4 } }, uncertainty: { entries: [{ path: 'damageRatio.replacement.mean', distribution: { kind: 'uniform', min: 0.02, max: 0.98 }, basis: 'analyst', note: '' }], correlations: [] } })
+    // Each range is valid against the other's central value (sd 0.4 < √(m(1 − m)) for m in 0.6–0.79; mean 0.7
+    // allows sd up to 0.458), but a draw of a high mean with a high sd is not: that pair is clamped.
+    const s = parseAssumptions({ damageRatio: { replacement: { mean: 0.7, sd: 0.4 } }, uncertainty: { entries: [
+      { path: 'damageRatio.replacement.mean', distribution: { kind: 'uniform', min: 0.6, max: 0.79 }, basis: 'analyst', note: '' },
+      { path: 'damageRatio.replacement.sd', distribution: { kind: 'uniform', min: 0.3, max: 0.45 }, basis: 'analyst', note: '' },
+    ], correlations: [] } })
     const p = planAssumptionDraws(s, { draws: 50, runSeed: 2 })
     expect(p.clamped).toBeGreaterThan(0)
     for (const d of p.a) expect(d.assumptions.damageRatio.replacement.sd ** 2).toBeLessThan(d.assumptions.damageRatio.replacement.mean * (1 - d.assumptions.damageRatio.replacement.mean))
@@ -207,7 +214,7 @@ describe('propagation on common random numbers', () => {
   })
 
   it('the site series is the sum of its tanks\' adjusted figures, evaluation by evaluation; at the central set it is the central figure', () => {
-    const set = parseAssumptions({ uncertainty: { entries: [lognormal('thresholds.grounded_pipe.u50Kv', 100, 0.2), lognormal('ignitionGivenSpark.crude', 0.3, 0.2)], correlations: [] } })
+    const set = parseAssumptions({ uncertainty: { entries: [lognormal('thresholds.grounded_pipe.u50Kv', 100, 0.2), { path: 'ignitionGivenSpark.crude', distribution: { kind: 'normal', mean: 0.3, sd: 0.06 }, basis: 'analyst', note: '' }], correlations: [] } })
     const plan = planAssumptionDraws(set, { draws: 50, runSeed: 13 })
     const site = battery()
     const v = siteDrawValues(site, plan, { runSeed: 13, samples: 1500 })
