@@ -2,11 +2,12 @@
 // minimum contrast, and recovery of known parameters from records simulated by a Thomas process.
 import { describe, expect, it } from 'vitest'
 import {
-  fitStormClustering, fitThomasMinimumContrast, kFunction, pooledK, pooledThomasK, siblingPairsInWindow, projectBox, radiiGrid, simulatePoisson, simulateThomas,
+  fitStormClustering, fitThomasMinimumContrast, kFunction, MINIMUM_CONTRAST, pooledK, pooledThomasK, siblingPairsInWindow, projectBox, radiiGrid, simulatePoisson, simulateThomas,
   thinningShare, thomasK,
 } from '../../../shared/calibration/cluster-fit'
 import { thomasRecords } from '../../support/thomas-records'
 import { createStream } from '../../../shared/engine/random'
+import { stormFlashes } from '../../../shared/engine/storm-clusters'
 
 const square = { width: 100, height: 100 }
 
@@ -149,5 +150,29 @@ describe('fitStormClustering', () => {
   it('refuses records with no window of two flashes', () => {
     const records = [{ timeMs: 0, latDeg: 31, lonDeg: -95 }, { timeMs: 86400e3 * 2, latDeg: 31, lonDeg: -95 }]
     expect(() => fitStormClustering(records, { box, windowHours: 24, detectionEfficiency: 1, periodYears: 1, bootstrap: 0, seed: 'a' })).toThrow(/No time window/)
+  })
+})
+
+describe('the calibration and the runs share one process', () => {
+  it('recovers σ and κ of the storm field that simulated-years runs draw (shared/engine/storm-clusters.ts)', () => {
+    // The runs' own storms in a 60 km square, each simulated year one pattern (storms are instant
+    // within a year); known σ = 3 km, μ = 100 flashes per storm, λmax = 0.5 flashes/km²/yr, so
+    // κ = λ/μ = 0.005 storms/km²/yr (the Thomas parametrisation, Møller & Waagepetersen 2004 §5.3).
+    // Tolerances 15 % on σ and 30 % on κ, as stated above for the records' fit (common practice); 60 windows of ~18 storms each.
+    const field = { maxFlashDensity: 0.5, spreadKm: 3, flashesPerStorm: 100 }
+    const window = { width: 60, height: 60 }
+    const patterns = Array.from({ length: 60 }, (_, year) =>
+      stormFlashes(field, 'calibration-check', { x0: 0, x1: 60, y0: 0, y1: 60 }, year).map(f => ({ x: f.xKm, y: f.yKm })))
+    const meanCount = patterns.reduce((n, p) => n + p.length, 0) / patterns.length
+    expect(meanCount / (60 * 60)).toBeGreaterThan(0.5 * 0.8) // the field keeps its flash density (within its scatter)
+    expect(meanCount / (60 * 60)).toBeLessThan(0.5 * 1.2)
+    const radii = radiiGrid(MINIMUM_CONTRAST.rangeShareOfSide * 60)
+    const { k } = pooledK(patterns, window, radii)
+    const result = fitThomasMinimumContrast(k, radii, window)
+    expect(result.problem).toBeNull()
+    expect(result.fit!.sigma / 3).toBeGreaterThan(0.85)
+    expect(result.fit!.sigma / 3).toBeLessThan(1.15)
+    expect(result.fit!.kappa / 0.005).toBeGreaterThan(0.7)
+    expect(result.fit!.kappa / 0.005).toBeLessThan(1.3)
   })
 })
