@@ -2,8 +2,9 @@
 // methods and the fit plot, and the saved calibration keeps its source.
 import { resolve } from 'node:path'
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
-import type { Browser, Page } from 'playwright-core'
+import type { Browser } from 'playwright-core'
 import { createOrganisation, memberClient } from '../support/accounts'
+import { waitForDrawnChart } from '../support/charts'
 import { launchBrowser, openGuardedPage, saveScreenshot } from '../support/browser'
 import { testPool } from '../support/db'
 
@@ -26,18 +27,6 @@ async function signedInPage(options: Parameters<typeof openGuardedPage>[1] = {})
   return guarded
 }
 
-async function inked(page: Page, testId: string): Promise<number> {
-  const canvas = page.locator(`[data-testid="${testId}"] canvas`).first()
-  await canvas.waitFor({ state: 'visible' })
-  await page.waitForTimeout(500)
-  return canvas.evaluate((c: HTMLCanvasElement) => {
-    const { data } = c.getContext('2d')!.getImageData(0, 0, c.width, c.height)
-    let n = 0
-    for (let i = 3; i < data.length; i += 4) if (data[i]! > 0) n++
-    return n
-  })
-}
-
 const examples = resolve(import.meta.dirname, '../../docs/examples')
 
 describe('calibration in a real browser', () => {
@@ -48,14 +37,14 @@ describe('calibration in a real browser', () => {
     // The example is the hand-worked series: up-and-down U50 = 92.8 kV (IEC 60060-1 mean of the valid levels).
     await expect.poll(() => page.getByTestId('up-and-down-result').innerText()).toContain('92.8 kV')
     expect(await page.getByTestId('likelihood-result').innerText()).toMatch(/log-normal σ \(dimensionless\)/)
-    expect(await inked(page, 'impulse-chart')).toBeGreaterThan(1000)
+    expect(await waitForDrawnChart(page, page.getByTestId('impulse-chart'), 1001)).toBeGreaterThan(1000)
     await page.getByTestId('impulse-title').fill('Float switch, example series')
     await page.getByTestId('impulse-configuration').fill('float 20 mm from wall, 1.2/50 µs, negative')
     await page.getByTestId('impulse-basis').fill('test waveshape taken as the induced one')
     await page.getByTestId('impulse-save').click()
     await page.waitForURL(/\/calibration\/[0-9a-f-]{36}$/)
     await expect.poll(() => page.getByTestId('source-link').innerText()).toBe('impulse-series.csv')
-    expect(await inked(page, 'impulse-chart')).toBeGreaterThan(1000)
+    expect(await waitForDrawnChart(page, page.getByTestId('impulse-chart'), 1001)).toBeGreaterThan(1000)
     await page.waitForTimeout(1000) // let the chart's entry animation finish before the screenshot
     await saveScreenshot(page, 'calibration-impulse')
     expect(outsideRequests).toEqual([])
@@ -116,7 +105,7 @@ describe('calibration in a real browser', () => {
     // The example records span 29.63–29.89° N and 95.48–95.22° W (docs/examples/lightning-records.csv); the site (29.76° N, 95.37° W)
     // lies 0.11° of longitude (10.9 km) from the western edge, so a 20 km circle reaches about 9 km beyond them (hand-worked).
     expect(await page.getByTestId('calibration-warnings').innerText()).toMatch(/20 km circle around Bayou tank farm reaches [\d.]+ km beyond the area the records span/)
-    expect(await inked(page, 'current-fit-chart')).toBeGreaterThan(1000)
+    expect(await waitForDrawnChart(page, page.getByTestId('current-fit-chart'), 1001)).toBeGreaterThan(1000)
     await saveScreenshot(page, 'calibration-lightning')
     expect(outsideRequests).toEqual([])
     await context.close()

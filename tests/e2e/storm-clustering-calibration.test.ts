@@ -2,9 +2,10 @@
 // from an uploaded records file and saves it as an assumption version; a viewer opens the
 // accumulation view of a run in which two sites lose together, and of a run without simulated years.
 import { afterAll, beforeAll, describe, expect, inject, it } from 'vitest'
-import type { Browser, Page } from 'playwright-core'
+import type { Browser } from 'playwright-core'
 import { defaultAssumptions } from '../../shared/engine/assumptions'
 import { createOrganisation, memberClient } from '../support/accounts'
+import { waitForDrawnChart } from '../support/charts'
 import { launchBrowser, openGuardedPage, saveScreenshot } from '../support/browser'
 import { testPool } from '../support/db'
 import { createDefaultAssumptions, createFleet } from '../support/fleet'
@@ -52,18 +53,6 @@ async function signedInPage(cookie: string) {
   return guarded
 }
 
-async function inked(page: Page, testId: string): Promise<number> {
-  const canvas = page.locator(`[data-testid="${testId}"] canvas`).first()
-  await canvas.waitFor({ state: 'visible' })
-  await page.waitForTimeout(500)
-  return canvas.evaluate((c: HTMLCanvasElement) => {
-    const { data } = c.getContext('2d')!.getImageData(0, 0, c.width, c.height)
-    let n = 0
-    for (let i = 3; i < data.length; i += 4) if (data[i]! > 0) n++
-    return n
-  })
-}
-
 describe('storm clustering and accumulation in a real browser', () => {
   it('calibrates storm clustering from an uploaded file and saves it as an assumption version', async () => {
     const { page, context, outsideRequests } = await signedInPage(analystCookie)
@@ -86,7 +75,7 @@ describe('storm clustering and accumulation in a real browser', () => {
     // Within 15 % of the simulated σ = 8 km (the stated tolerance of the unit and server tests).
     expect(sigma).toBeGreaterThan(6.8)
     expect(sigma).toBeLessThan(9.2)
-    expect(await inked(page, 'storm-clustering-chart')).toBeGreaterThan(1000)
+    expect(await waitForDrawnChart(page, page.getByTestId('storm-clustering-chart'), 1001)).toBeGreaterThan(1000)
     await page.getByTestId('save-set').selectOption({ label: 'Clustering set' })
     await page.getByTestId('save-version').click()
     await expect.poll(() => page.getByTestId('save-confirmation').innerText()).toContain('“Clustering set”')
@@ -109,7 +98,7 @@ describe('storm clustering and accumulation in a real browser', () => {
     expect(groups).toMatch(/6,500,000/)
     const sites = await page.getByTestId('accumulation-sites').innerText()
     expect(sites).not.toContain('Inland depot') // no loss in the worst years: not listed
-    expect(await inked(page, 'map-sites')).toBeGreaterThan(1000)
+    expect(await waitForDrawnChart(page, page.getByTestId('map-sites'), 1001)).toBeGreaterThan(1000)
     await page.waitForTimeout(800)
     await saveScreenshot(page, 'accumulation-view')
     await page.goto(`${inject('baseUrl')}/runs/${frequencyRunId}/accumulation`, { waitUntil: 'networkidle', timeout: 90_000 })

@@ -40,7 +40,8 @@ beforeAll(async () => {
   underwriter = await memberClient(pool, org, 'underwriter')
   portfolioId = await createFleet(pool, org, { sites: 5, tanksPerSite: 3, seed: 'draws-test' })
   versionId = await createDefaultAssumptions(pool, org, { ...defaultAssumptions, uncertainty })
-  plainVersionId = await createDefaultAssumptions(pool, org, defaultAssumptions)
+  // The defaults carry illustrative ranges; a set whose analyst removed every uncertainty has none to draw.
+  plainVersionId = await createDefaultAssumptions(pool, org, { ...defaultAssumptions, uncertainty: { entries: [], correlations: [] } })
 })
 afterAll(() => pool.end())
 
