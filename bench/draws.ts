@@ -10,6 +10,7 @@ import { simulateSiteFrequency } from '../shared/engine/frequency'
 import { planAssumptionDraws, evaluationCount } from '../shared/engine/draws'
 import { DRAW_FLASHES_PER_SITE, siteDrawValues, summariseSiteDraws } from '../shared/engine/draw-figures'
 import { generatePortfolio } from './engine-portfolio'
+import { timed } from './cpu-time'
 
 const arg = (name: string, fallback: number) => {
   const i = process.argv.indexOf(name)
@@ -18,13 +19,6 @@ const arg = (name: string, fallback: number) => {
 const SITES = arg('--sites', 1000)
 const K = arg('--draws', 100)
 
-function timed<T>(f: () => T): { value: T; cpu: number; wall: number } {
-  const c0 = process.cpuUsage()
-  const w0 = performance.now()
-  const value = f()
-  const c = process.cpuUsage(c0)
-  return { value, cpu: (c.user + c.system) / 1e6, wall: (performance.now() - w0) / 1000 }
-}
 const line = (label: string, text: string) => console.log(`${label.padEnd(52)} ${text}`)
 
 // Illustrative uncertainty of the kind the assumptions page offers: sparking levels and scatter,

@@ -8,19 +8,12 @@ import {
 import type { AssumptionSet, PreparedSite, SiteInput } from '../shared/engine/index'
 import { crudeTankEstimate, estimateTank } from '../shared/engine/frequency'
 import { generatePortfolio } from './engine-portfolio'
+import { timed } from './cpu-time'
 
 const SITES = 1000
 const TANKS = 5000
 const YEARS = 100_000
 const TARGET_RSE = 0.02
-
-function timed<T>(f: () => T): { value: T; cpu: number; wall: number } {
-  const c0 = process.cpuUsage()
-  const w0 = performance.now()
-  const value = f()
-  const c = process.cpuUsage(c0)
-  return { value, cpu: (c.user + c.system) / 1e6, wall: (performance.now() - w0) / 1000 }
-}
 
 const fmt = (x: number, digits = 1) => x.toFixed(digits)
 const line = (label: string, text: string) => console.log(`${label.padEnd(44)} ${text}`)

@@ -4,6 +4,7 @@
 import { createStream, parseAssumptions } from '../shared/engine/index'
 import { computeStormWindow, StormSiteIndex, windowTotals, type StormFlashRecord, type StormSite } from '../shared/storms/compute'
 import { generatePortfolio } from './engine-portfolio'
+import { timed } from './cpu-time'
 
 const SITES = 1000
 const TANKS = 5000
@@ -12,13 +13,6 @@ const FLASHES = 100_000
 // so each flash lands near a site about as often as in a real storm over an oil field.
 const REGION = { lat: [30.5, 33.5], lon: [-104, -101] } as const
 
-function timed<T>(f: () => T): { value: T, cpu: number, wall: number } {
-  const c0 = process.cpuUsage()
-  const w0 = performance.now()
-  const value = f()
-  const c = process.cpuUsage(c0)
-  return { value, cpu: (c.user + c.system) / 1e6, wall: (performance.now() - w0) / 1000 }
-}
 const line = (label: string, text: string) => console.log(`${label.padEnd(46)} ${text}`)
 
 const assumptions = parseAssumptions({})

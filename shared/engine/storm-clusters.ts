@@ -189,6 +189,13 @@ export function stormIntensity(c: Pick<SiteClustering, 'maxFlashDensity' | 'flas
   return c.maxFlashDensity / c.flashesPerStorm
 }
 
+/** The storm field's layout for a run: its seed, the spread, the kernel's reach, the tile side and the mean storms per tile-block. */
+function stormField(c: Pick<SiteClustering, 'maxFlashDensity' | 'spreadKm' | 'flashesPerStorm'>, runSeed: number | string) {
+  const sigma = c.spreadKm
+  const tile = TILE_SIGMAS * sigma
+  return { seed: stormSeed(runSeed), sigma, reach: REACH_SIGMAS * sigma, tile, perTileBlock: stormIntensity(c) * tile * tile * YEAR_BLOCK }
+}
+
 /**
  * Variance of a site's year factor Λ_y (E[Λ_y] = 1): (μ/λmax)·∫k² with ∫k² = (1 − e^(−R²/σ²)) /
  * (4πσ²·mass²) for the truncated kernel (Campbell's theorem for the shot noise Σ f(c)).
@@ -216,12 +223,8 @@ function checkClustering(c: SiteClustering): void {
 export function clusteredCandidateYears(c: SiteClustering, ratePerYear: number, years: number, runSeed: number | string, rand: UniformStream): Int32Array {
   checkClustering(c)
   if (ratePerYear <= 0) return new Int32Array(0)
-  const seed = stormSeed(runSeed)
-  const sigma = c.spreadKm
-  const reach = REACH_SIGMAS * sigma
-  const tile = TILE_SIGMAS * sigma
+  const { seed, sigma, reach, tile, perTileBlock } = stormField(c, runSeed)
   const blocks = Math.ceil(years / YEAR_BLOCK)
-  const perTileBlock = stormIntensity(c) * tile * tile * YEAR_BLOCK
   const peak = 1 / (2 * Math.PI * sigma * sigma * KERNEL_MASS)
   const tx0 = Math.floor((c.xKm - reach) / tile), tx1 = Math.floor((c.xKm + reach) / tile)
   const ty0 = Math.floor((c.yKm - reach) / tile), ty1 = Math.floor((c.yKm + reach) / tile)
@@ -288,12 +291,8 @@ export interface StormFlash { xKm: number; yKm: number; year: number; storm: num
  * simulated lightning-location records.
  */
 export function stormFlashes(c: Pick<SiteClustering, 'maxFlashDensity' | 'spreadKm' | 'flashesPerStorm'>, runSeed: number | string, window: { x0: number; x1: number; y0: number; y1: number }, year: number, ngAt?: (xKm: number, yKm: number) => number): StormFlash[] {
-  const seed = stormSeed(runSeed)
-  const sigma = c.spreadKm
-  const reach = REACH_SIGMAS * sigma
-  const tile = TILE_SIGMAS * sigma
+  const { seed, sigma, reach, tile, perTileBlock } = stormField(c, runSeed)
   const block = Math.floor(year / YEAR_BLOCK)
-  const perTileBlock = stormIntensity(c) * tile * tile * YEAR_BLOCK
   const rand = createStream(runSeed, 'storm-flashes', String(year))
   const flashes: StormFlash[] = []
   const storm = { x: 0, y: 0, year: 0 }
