@@ -10,7 +10,7 @@ import type { CountEstimate, SiteInput } from '../../shared/engine/types'
 import { figureFromCount, figureFromEstimate, type ResultFigure } from '../../shared/results/figure'
 import type { YearLossSummary } from '../../shared/engine/exceedance'
 import type { PackedEvents, PackedSplit } from './events-codec'
-import { siteEventBands, type SiteEventBands } from '../../shared/engine/heatmap'
+import { RUN_EVENT_BANDS, siteEventBands, type SiteEventBands } from '../../shared/engine/heatmap'
 import { prepareSiteOnce, type SitePreparation } from '../../shared/engine/prepared'
 import { threadId } from 'node:worker_threads'
 import { epochMs, type SiteThreadTiming } from './timing'
@@ -87,8 +87,6 @@ export interface SiteTiming extends SiteThreadTiming {
 const fromMean = (m: { mean: number, se: number }): Figure => figureFromEstimate(normalEstimate(m.mean, m.se))
 const fromCount = figureFromCount
 
-/** Candidate flashes behind each site's event-band heatmap (a picture, not a headline figure). */
-const EVENT_BAND_SAMPLES = 40_000
 
 export function computeSite(task: SiteTask): SiteComputation {
   const startedAt = epochMs()
@@ -100,7 +98,7 @@ export function computeSite(task: SiteTask): SiteComputation {
   const t1 = performance.now()
   const figures = checked.mode === 'frequency' ? computeFrequency(checked, prepared) : computeYears(checked, prepared)
   const t2 = performance.now()
-  const eventBands = siteEventBands(checked.site, checked.assumptions, { runSeed: checked.runSeed, samples: EVENT_BAND_SAMPLES }, prepared)
+  const eventBands = siteEventBands(checked.site, checked.assumptions, { runSeed: checked.runSeed, ...RUN_EVENT_BANDS }, prepared)
   const t3 = performance.now()
   // Assumption draws count as figures in the timing (they are the same figures, K times over).
   const draws = checked.mode === 'frequency' && (checked.assumptionDraws ?? 0) > 0

@@ -80,8 +80,15 @@ function heatmapRow(ps: PreparedSite, current: number, distances: number[], dire
 
 export interface SiteEventBandOptions {
   runSeed: number | string
-  /** Candidate flashes to average over (default 200 000). */
+  /** Candidate flashes to average over (default 200 000); with `precision`, the most it draws. */
   samples?: number
+  /**
+   * Stop once the picture is as precise as stated: after every batch (from `minSamples` on), the
+   * standard error of every cell's rate — from the spread of the batches' own estimates — is at
+   * most `shareSe` × the site's total event rate, and the total's relative standard error at most
+   * `totalRse`. A site without any event so far draws on up to `samples`.
+   */
+  precision?: { shareSe: number; totalRse: number; minSamples: number; batch: number }
   currentBandsKa?: number[]
   distanceBandsM?: number[]
 }
@@ -98,7 +105,18 @@ export interface SiteEventBands {
   /** Of which direct strikes (distance 0), by current band. */
   directRatePerYear: number[]
   totalRatePerYear: number
+  /** Candidate flashes drawn (absent in heat maps stored before engine 2.4.0: 40,000 each). */
+  samples?: number
+  /** Largest standard error of a cell's rate as a share of the total event rate (absent before engine 2.4.0). */
+  largestShareSe?: number
 }
+
+/**
+ * Candidate flashes behind each site's event-band heatmap (a picture, not a headline figure): in
+ * batches of 1,000, from 8,000 on, until every cell's rate has a standard error of at most 0.5 % of
+ * the site's total event rate and the total a relative standard error of at most 2 %; at most 40,000.
+ */
+export const RUN_EVENT_BANDS: Pick<SiteEventBandOptions, 'samples' | 'precision'> = { samples: 40_000, precision: { shareSe: 0.005, totalRse: 0.02, minSamples: 8_000, batch: 1_000 } }
 
 /**
  * Where a site's events come from: expected tank events per year by current band and distance
@@ -111,36 +129,93 @@ export function siteEventBands(site: SiteInput, assumptions: AssumptionSet, opti
   const rand = createStream(options.runSeed, site.id, 'event-bands')
   const currentEdges = options.currentBandsKa ?? defaultCurrentBands(assumptions)
   const distanceEdges = options.distanceBandsM ?? [0, 25, 50, 100, 200, 500, 1000, 2000].filter((d) => d < siteRadius(ps)).concat([siteRadius(ps)])
-  const rate = currentEdges.slice(1).map(() => new Float64Array(distanceEdges.length - 1))
-  const directRate = new Float64Array(currentEdges.length - 1)
-  const samples = options.samples ?? 200_000
-  const weight = env.totalRate / samples
+  const nCurrent = currentEdges.length - 1
+  const nDistance = distanceEdges.length - 1
+  const cells = nCurrent * nDistance
+  const maxSamples = options.samples ?? 200_000
+  const precision = options.precision
+  const batch = precision ? Math.max(1, Math.floor(precision.batch)) : maxSamples
+  // Sums of each batch's contributions (flat current × distance cells), without the weight factor.
+  const batchSum = new Float64Array(cells)
+  const batchDirect = new Float64Array(nCurrent)
+  const sum = new Float64Array(cells), sumSq = new Float64Array(cells), sumDirect = new Float64Array(nCurrent)
+  const cross = new Float64Array(cells) // Σ_b cell_b · total_b
+  let totalSumSq = 0
+  let batches = 0
+  let drawn = 0
+  let largestShareSe = 0
   const flash: Candidate = { x: 0, y: 0, currentKa: 0, lnI: 0, cell: 0 }
-  for (let n = 0; n < samples; n++) {
-    drawCandidate(ps, env, rand, flash)
-    const band = bandIndex(currentEdges, flash.currentKa)
-    if (band < 0) continue
-    const attached = attachFlash(ps, flash.x, flash.y, strikeRadius(ps, flash.lnI))
-    const w = weight / cellBoundOf(env, flash.cell)
-    for (let t = 0; t < ps.nTanks; t++) {
-      if (attached === t) { directRate[band]! += w; rate[band]![0]! += w; continue }
-      if (!canSpark(ps, t, flash.currentKa)) continue
-      const p = tankSparkGivenAttachment(ps, t, flash.currentKa, flash.lnI, attached, flash.x, flash.y)
-      if (p <= 0) continue
-      const qx = attached < 0 ? flash.x : ps.objX[attached]!
-      const qy = attached < 0 ? flash.y : ps.objY[attached]!
-      const d = bandIndex(distanceEdges, Math.hypot(qx - ps.objX[t]!, qy - ps.objY[t]!))
-      if (d >= 0) rate[band]![d]! += w * p
+  while (drawn < maxSamples) {
+    const size = Math.min(batch, maxSamples - drawn)
+    batchSum.fill(0)
+    batchDirect.fill(0)
+    for (let n = 0; n < size; n++) {
+      drawCandidate(ps, env, rand, flash)
+      const band = bandIndex(currentEdges, flash.currentKa)
+      if (band < 0) continue
+      const attached = attachFlash(ps, flash.x, flash.y, strikeRadius(ps, flash.lnI))
+      const w = 1 / cellBoundOf(env, flash.cell)
+      const row = band * nDistance
+      for (let t = 0; t < ps.nTanks; t++) {
+        if (attached === t) { batchDirect[band]! += w; batchSum[row]! += w; continue }
+        if (!canSpark(ps, t, flash.currentKa)) continue
+        const p = tankSparkGivenAttachment(ps, t, flash.currentKa, flash.lnI, attached, flash.x, flash.y)
+        if (p <= 0) continue
+        const qx = attached < 0 ? flash.x : ps.objX[attached]!
+        const qy = attached < 0 ? flash.y : ps.objY[attached]!
+        const d = bandIndex(distanceEdges, Math.hypot(qx - ps.objX[t]!, qy - ps.objY[t]!))
+        if (d >= 0) batchSum[row + d]! += w * p
+      }
     }
+    drawn += size
+    batches += 1
+    let batchTotal = 0
+    for (let c = 0; c < cells; c++) batchTotal += batchSum[c]!
+    for (let c = 0; c < cells; c++) {
+      sum[c]! += batchSum[c]!
+      sumSq[c]! += batchSum[c]! * batchSum[c]!
+      cross[c]! += batchSum[c]! * batchTotal
+    }
+    for (let b = 0; b < nCurrent; b++) sumDirect[b]! += batchDirect[b]!
+    totalSumSq += batchTotal * batchTotal
+    if (!precision || drawn < precision.minSamples || batches < 2 || size < batch) continue
+    const check = batchPrecision(sum, sumSq, cross, totalSumSq, batches)
+    largestShareSe = check.largestShareSe
+    if (check.total > 0 && check.largestShareSe <= precision.shareSe && check.totalRse <= precision.totalRse) break
   }
+  if (precision && batches >= 2) largestShareSe = batchPrecision(sum, sumSq, cross, totalSumSq, batches).largestShareSe
+  const weight = env.totalRate / drawn
+  const rate = Array.from({ length: nCurrent }, (_, b) => Array.from(sum.subarray(b * nDistance, (b + 1) * nDistance), (v) => v * weight))
   const total = rate.reduce((s, row) => s + row.reduce((a, b) => a + b, 0), 0)
   return {
     siteId: site.id, currentBandsKa: currentEdges, distanceBandsM: distanceEdges,
-    ratePerYear: rate.map((row) => Array.from(row)),
-    share: rate.map((row) => Array.from(row, (v) => (total > 0 ? v / total : 0))),
-    directRatePerYear: Array.from(directRate),
+    ratePerYear: rate,
+    share: rate.map((row) => row.map((v) => (total > 0 ? v / total : 0))),
+    directRatePerYear: Array.from(sumDirect, (v) => v * weight),
     totalRatePerYear: total,
+    ...(precision ? { samples: drawn, largestShareSe } : {}),
   }
+}
+
+/**
+ * Precision of the pooled estimate from B equal batches (batch means; a ratio estimator for the
+ * shares: se(ŝ_c)² ≈ Σ_b (x_cb − ŝ_c·t_b)² / (B(B−1)·t̄²), Cochran 1977, "Sampling Techniques", §6.4).
+ */
+function batchPrecision(sum: Float64Array, sumSq: Float64Array, cross: Float64Array, totalSumSq: number, batches: number): { total: number; totalRse: number; largestShareSe: number } {
+  let total = 0
+  for (let c = 0; c < sum.length; c++) total += sum[c]!
+  if (total <= 0) return { total: 0, totalRse: Infinity, largestShareSe: 0 }
+  const meanTotal = total / batches
+  const totalVar = Math.max(0, (totalSumSq - batches * meanTotal * meanTotal) / (batches - 1))
+  let largest = 0
+  for (let c = 0; c < sum.length; c++) {
+    const share = sum[c]! / total
+    // Σ_b (x_cb − s·t_b)² expanded over the running sums.
+    const ss = Math.max(0, sumSq[c]! - 2 * share * cross[c]! + share * share * totalSumSq)
+    const se = Math.sqrt(ss / (batches * (batches - 1))) / meanTotal
+    if (se > largest) largest = se
+  }
+  return { total, totalRse: Math.sqrt(totalVar / batches) / meanTotal, largestShareSe: largest }
 }
 
 function defaultCurrentBands(a: AssumptionSet): number[] {

@@ -44,6 +44,12 @@ describe('results of the demo run in a real browser', () => {
     await page.getByTestId('site-plan').waitFor()
     expect(await page.getByTestId('plan-tank').count()).toBeGreaterThan(0)
     expect(await waitForDrawnChart(page, page.getByTestId('event-bands-heatmap'))).toBeGreaterThan(2000)
+    // The picture states its own precision (the run stops drawing at ±0.5 percentage points, or at 40,000 candidates).
+    const precision = await page.getByTestId('event-bands-precision').textContent()
+    const stated = /From (\d{1,2},\d{3}) candidate flashes: each share within ±(0\.\d+) percentage points \(one standard error\)/.exec(precision ?? '')
+    expect(stated, precision ?? '').not.toBeNull()
+    expect(Number(stated![1]!.replace(',', ''))).toBeGreaterThanOrEqual(8000)
+    expect(Number(stated![1]!.replace(',', '')) === 40_000 || Number(stated![2]) <= 0.5).toBe(true)
     expect(await waitForDrawnChart(page, page.getByTestId('tank-heatmap'))).toBeGreaterThan(2000)
     await saveScreenshot(page, 'results-site')
     // The tank's what-if opens compared with the stored run's figures for that tank.
