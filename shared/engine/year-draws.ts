@@ -31,6 +31,9 @@ import { bandOf, type DrawBand } from './draw-figures'
 export const DRAW_YEARS = 2000
 
 export interface YearDrawFigures {
+  /** Tank events per year: direct strikes and induced sparking (optional: the bands of a run's four figures). */
+  direct?: number
+  sparking?: number
   averageAnnualLoss: number
   /** Ignitions (tank fires, spread included) per year. */
   expectedFires: number
@@ -44,18 +47,23 @@ export interface SiteYearDrawValues {
   returnPeriods: readonly number[]
   /** Index 0: the central assumptions over Y_d years; 1…K: the band draws. */
   evaluations: YearDrawFigures[]
+  /** Per evaluation, its year-loss table over the Y_d years (the portfolio adds them year by year). */
+  tables: { yearLosses: Float64Array; yearMaxEventLoss: Float64Array }[]
 }
 
-function figuresOf(site: SiteInput, draw: AssumptionDraw, options: { runSeed: number | string; years: number; clustering: SiteClustering | null }, periods: readonly number[]): YearDrawFigures {
+function figuresOf(site: SiteInput, draw: AssumptionDraw, options: { runSeed: number | string; years: number; clustering: SiteClustering | null }, periods: readonly number[]): { figures: YearDrawFigures; table: { yearLosses: Float64Array; yearMaxEventLoss: Float64Array } } {
   const scaled = draw.flashDensityFactor === 1 ? site : { ...site, flashDensity: site.flashDensity * draw.flashDensityFactor }
   const r = simulateSiteYears(scaled, draw.assumptions, { runSeed: options.runSeed, years: options.years, clustering: options.clustering })
   const at = (table: typeof r.summary.aggregate) => periods.map(T => table.find(p => p.returnPeriodYears === T)?.loss ?? null)
-  return {
+  const figures = {
+    direct: r.totals.direct.rate,
+    sparking: r.totals.sparking.rate,
     averageAnnualLoss: r.summary.averageAnnualLoss,
     expectedFires: r.totals.ignition.rate,
     aggregate: at(r.summary.aggregate),
     occurrence: at(r.summary.occurrence),
   }
+  return { figures, table: { yearLosses: r.yearLosses, yearMaxEventLoss: r.yearMaxEventLoss } }
 }
 
 /**
@@ -72,7 +80,8 @@ export function siteYearDrawValues(site: SiteInput, plan: DrawPlan, options: { r
   }
   const periods = options.returnPeriods ?? STANDARD_RETURN_PERIODS
   const run = { runSeed: options.runSeed, years, clustering }
-  return { years, returnPeriods: periods, evaluations: [plan.central, ...plan.a].map(d => figuresOf(site, d, run, periods)) }
+  const out = [plan.central, ...plan.a].map(d => figuresOf(site, d, run, periods))
+  return { years, returnPeriods: periods, evaluations: out.map(o => o.figures), tables: out.map(o => o.table) }
 }
 
 export interface YearDrawBands {

@@ -20,6 +20,7 @@ describe('year-mode assumption bands', () => {
     const v = siteYearDrawValues(site, same, { runSeed: 9, years: 500 })
     const central = v.evaluations[0]!
     for (const e of v.evaluations) expect(e).toEqual(central)
+    for (const t of v.tables) expect(t).toEqual(v.tables[0])
     const b = yearDrawBands(v, { ...central, averageAnnualLoss: 1234 })
     expect(b.averageAnnualLoss).toEqual({ p05: 1234, p50: 1234, p95: 1234 })
   })
