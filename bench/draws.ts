@@ -9,6 +9,8 @@ import { parseAssumptions } from '../shared/engine/assumptions'
 import { simulateSiteFrequency } from '../shared/engine/frequency'
 import { planAssumptionDraws, evaluationCount } from '../shared/engine/draws'
 import { DRAW_FLASHES_PER_SITE, siteDrawValues, summariseSiteDraws } from '../shared/engine/draw-figures'
+import { simulateSiteYears } from '../shared/engine/years'
+import { DRAW_YEARS, siteYearDrawValues } from '../shared/engine/year-draws'
 import { generatePortfolio } from './engine-portfolio'
 import { timed } from './cpu-time'
 
@@ -62,3 +64,16 @@ line('cost ÷ (K single runs), bands only', `${(bands.cpu / kSingle).toFixed(3)}
 line('cost ÷ (K single runs), bands + sensitivity', `${(full.cpu / kSingle).toFixed(3)} (target ≤ 0.2)`)
 const flashes = bands.value.reduce((n, v) => n + v.flashes, 0)
 line('shared flashes kept', `${flashes} (${(flashes / sites.length).toFixed(0)} per site of ${DRAW_FLASHES_PER_SITE})`)
+
+// Simulated years (year-draws.ts): a single run is the central years of every site; the draws add
+// K re-simulations over min(years, DRAW_YEARS) years each, plus the central re-simulation.
+const YEAR_SITES = arg('--year-sites', 50)
+const YEARS = arg('--years', 10_000)
+const ySites = sites.slice(0, YEAR_SITES)
+const yearPlan = { ...plan.value, b: [], ab: [], factors: [] }
+console.log(`simulated years: ${ySites.length} sites, ${YEARS} years, K = ${K}, ${Math.min(YEARS, DRAW_YEARS)} years per draw`)
+const ySingle = timed(() => ySites.map((s) => simulateSiteYears(s, assumptions, { runSeed: 1, years: YEARS })))
+line(`single run (${YEARS} simulated years)`, `${ySingle.cpu.toFixed(1)} s CPU (${ySingle.wall.toFixed(1)} s wall)`)
+const yDraws = timed(() => ySites.map((s) => siteYearDrawValues(s, yearPlan, { runSeed: 1, years: YEARS })))
+line(`years draws (${K} draws + central, re-simulated)`, `${yDraws.cpu.toFixed(1)} s CPU (${yDraws.wall.toFixed(1)} s wall)`)
+line('cost ÷ (K single runs), years bands', `${(yDraws.cpu / (K * ySingle.cpu)).toFixed(3)} (= (1 + 1/K) × years per draw ÷ run years, about)`)

@@ -214,7 +214,7 @@ export async function siteDetail(runId: string, siteId: string) {
     expectedAnnualLossPd: runSiteResults.expectedAnnualLossPd, expectedAnnualLossBi: runSiteResults.expectedAnnualLossBi,
     radiusM: runSiteResults.radiusM, yearSummary: runSiteResults.yearSummary, eventBands: runSiteResults.eventBands,
     // the bands and indices only: the per-evaluation series stay in the database
-    draws: sql<DrawsView | null>`${runSiteResults.draws} - 'series'`,
+    draws: sql<DrawsView | null>`${runSiteResults.draws} - 'series' - 'yearTables'`,
     site: runSiteSnapshots.site, facts: runSiteSnapshots.facts,
   }).from(runSiteResults)
     .innerJoin(runSiteSnapshots, and(eq(runSiteSnapshots.runId, runSiteResults.runId), eq(runSiteSnapshots.siteId, runSiteResults.siteId)))

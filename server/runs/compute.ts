@@ -8,13 +8,13 @@ import type { SiteClustering } from '../../shared/engine/storm-clusters'
 import { countEstimate, normalEstimate } from '../../shared/engine/statistics'
 import type { CountEstimate, SiteInput } from '../../shared/engine/types'
 import { figureFromCount, figureFromEstimate, type ResultFigure } from '../../shared/results/figure'
-import type { YearLossSummary } from '../../shared/engine/exceedance'
+import { STANDARD_RETURN_PERIODS, type YearLossSummary } from '../../shared/engine/exceedance'
 import type { PackedEvents, PackedSplit } from './events-codec'
 import { RUN_EVENT_BANDS, siteEventBands, type SiteEventBands } from '../../shared/engine/heatmap'
 import { prepareSiteOnce, type SitePreparation } from '../../shared/engine/prepared'
 import { threadId } from 'node:worker_threads'
 import { epochMs, type SiteThreadTiming } from './timing'
-import { computeSiteDraws, type SiteDraws } from './draws'
+import { computeSiteDraws, computeSiteYearDraws, type SiteDraws } from './draws'
 
 export type RunMode = 'frequency' | 'year'
 
@@ -30,7 +30,7 @@ export interface SiteTask {
   years: number
   /** Year mode with storm clustering: the site's place in the run's storm field; null otherwise. */
   clustering: SiteClustering | null
-  /** Assumption uncertainty: K draws (0: none). Frequency mode only. */
+  /** Assumption uncertainty: K draws (0: none). Simulated years: bands only, each draw re-simulated (year-draws.ts). */
   assumptionDraws?: number
 }
 
@@ -105,7 +105,14 @@ export function computeSite(task: SiteTask): SiteComputation {
     ? computeSiteDraws(checked.site, checked.assumptions, checked.assumptionDraws!, checked.runSeed, figures.tanks.map(t => ({
         direct: t.direct.rate, sparking: t.sparking.rate, ignition: t.ignition.rate, expectedAnnualLoss: t.expectedAnnualLoss.rate,
       })))
-    : null
+    : checked.mode === 'year' && (checked.assumptionDraws ?? 0) > 0 && figures.yearSummary
+      ? computeSiteYearDraws(checked.site, checked.assumptions, checked.assumptionDraws!, checked.runSeed, checked.years, checked.clustering, {
+          direct: figures.direct.rate, sparking: figures.sparking.rate, expectedFires: figures.ignition.rate,
+          averageAnnualLoss: figures.yearSummary.averageAnnualLoss,
+          aggregate: STANDARD_RETURN_PERIODS.map(T => figures.yearSummary!.aggregate.find(p => p.returnPeriodYears === T)?.loss ?? null),
+          occurrence: STANDARD_RETURN_PERIODS.map(T => figures.yearSummary!.occurrence.find(p => p.returnPeriodYears === T)?.loss ?? null),
+        })
+      : null
   return { ...figures, eventBands, draws, timing: { threadId, startedAt, endedAt: epochMs(), prepareMs: t1 - t0, figuresMs: t2 - t1 + (performance.now() - t3), eventBandsMs: t3 - t2 } }
 }
 

@@ -5,6 +5,9 @@ import type { DrawPlan } from '../../shared/engine/draws'
 import { planAssumptionDraws } from '../../shared/engine/draws'
 import { DRAW_FLASHES_PER_SITE, siteDrawValues, summariseSiteDraws, type DrawMetric } from '../../shared/engine/draw-figures'
 import type { SiteInput } from '../../shared/engine/types'
+import type { SiteClustering } from '../../shared/engine/storm-clusters'
+import { bandOf } from '../../shared/engine/draw-figures'
+import { ratioSeries, siteYearDrawValues, yearDrawBands, type YearDrawFigures } from '../../shared/engine/year-draws'
 import type { StoredSiteDraws, StoredTankDraws } from '../../shared/results/draws'
 
 let cached: { key: string, plan: DrawPlan } | null = null
@@ -53,4 +56,53 @@ export function computeSiteDraws(site: SiteInput, assumptions: AssumptionSet, dr
     },
     tanks: s.tanks.map(bands => ({ draws, bands })),
   }
+}
+
+/**
+ * Simulated-years runs: every band draw re-simulated on the central streams (year-draws.ts), the
+ * site's four figures and its return-period losses as central × X_k / X_0. Sensitivity indices are
+ * not computed for years runs (their design would cost K·(2 + factors) re-simulations).
+ */
+export function computeSiteYearDraws(site: SiteInput, assumptions: AssumptionSet, draws: number, runSeed: number, years: number, clustering: SiteClustering | null, central: YearDrawFigures & { direct: number, sparking: number }): SiteDraws {
+  const plan = runDrawPlan(assumptions, draws, runSeed)
+  const v = siteYearDrawValues(site, plan, { runSeed, years, clustering })
+  const E = v.evaluations
+  // Per evaluation (central, then the K draws), the site's figure as the band uses it; where the
+  // central re-simulation has no event (X_0 = 0) the re-simulated values themselves.
+  const seriesOf = (c: number, pick: (f: YearDrawFigures) => number) => {
+    const x = E.map(pick)
+    const r = ratioSeries(c, x)
+    const out = new Float64Array(E.length)
+    out[0] = c
+    for (let k = 1; k < E.length; k++) out[k] = r ? r[k - 1]! : x[k]!
+    return out
+  }
+  const s = {
+    direct: seriesOf(central.direct, f => f.direct ?? 0), sparking: seriesOf(central.sparking, f => f.sparking ?? 0),
+    ignition: seriesOf(central.expectedFires, f => f.expectedFires), expectedAnnualLoss: seriesOf(central.averageAnnualLoss, f => f.averageAnnualLoss),
+  }
+  const band = (x: Float64Array) => bandOf(x.subarray(1))
+  const bands = { direct: band(s.direct), sparking: band(s.sparking), ignition: band(s.ignition), expectedAnnualLoss: band(s.expectedAnnualLoss) }
+  const quads: number[] = []
+  v.tables.forEach((t, e) => {
+    for (let y = 0; y < t.yearLosses.length; y++) if (t.yearLosses[y]! > 0) quads.push(e, y, t.yearLosses[y]!, t.yearMaxEventLoss[y]!)
+  })
+  return {
+    site: {
+      draws, bands, sensitivity: [], flashes: 0,
+      series: { direct: encodeSeries(s.direct), sparking: encodeSeries(s.sparking), ignition: encodeSeries(s.ignition), expectedAnnualLoss: encodeSeries(s.expectedAnnualLoss) },
+      years: yearDrawBands(v, central),
+      yearTables: encodeSeries(Float64Array.from(quads)),
+    },
+    // Tanks: no bands in a years run (the re-simulation is per site; tank bands would cost a ratio per tank and figure).
+    tanks: [],
+  }
+}
+
+/** The quadruples of a site's re-simulated year tables back: (evaluation, year, year loss, largest event loss). */
+export function decodeYearTables(text: string): Float64Array {
+  const bytes = Buffer.from(text, 'base64')
+  const f = new Float32Array(bytes.byteLength / 4)
+  new Uint8Array(f.buffer).set(bytes)
+  return Float64Array.from(f)
 }

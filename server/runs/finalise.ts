@@ -8,7 +8,8 @@ import { parseAssumptions, type AssumptionSet } from '../../shared/engine/assump
 import { evaluationCount } from '../../shared/engine/draws'
 import { bandOf, DRAW_METRICS, drawsOf, sensitivityOf, type DrawBands, type DrawMetric } from '../../shared/engine/draw-figures'
 import type { StoredPortfolioDraws } from '../../shared/results/draws'
-import { decodeSeries, runDrawPlan } from './draws'
+import { decodeSeries, decodeYearTables, runDrawPlan } from './draws'
+import { DRAW_YEARS, yearDrawBands, type YearDrawFigures } from '../../shared/engine/year-draws'
 import type { Figure } from './compute'
 import { decodeEvents } from './events-codec'
 import { sitesIndependentYears } from '../../shared/engine/storm-clusters'
@@ -106,6 +107,49 @@ async function portfolioDraws(tx: Database, runId: string, siteIds: string[], as
   }
 }
 
+/**
+ * Simulated-years runs with draws: the portfolio's four figures per draw are the sums of the sites'
+ * (each already central × X_k / X_0 site by site); its return-period losses come from the sites'
+ * re-simulated year-loss tables added year by year per evaluation (the years are shared across the
+ * sites of a run), anchored on the portfolio's central figures as central × X_k / X_0.
+ */
+async function portfolioYearDraws(tx: Database, runId: string, siteIds: string[], draws: number, years: number, central: YearDrawFigures): Promise<StoredPortfolioDraws> {
+  const E = 1 + draws
+  const Yd = Math.min(years, DRAW_YEARS)
+  const sums = Object.fromEntries(DRAW_METRICS.map(m => [m, new Float64Array(E)])) as Record<DrawMetric, Float64Array>
+  const tables = Array.from({ length: E }, () => ({ yearLosses: new Float64Array(Yd), yearMaxEventLoss: new Float64Array(Yd) }))
+  for (let i = 0; i < siteIds.length; i += EVENT_PAGE) {
+    const page = await tx.select({ draws: runSiteResults.draws }).from(runSiteResults)
+      .where(and(eq(runSiteResults.runId, runId), inArray(runSiteResults.siteId, siteIds.slice(i, i + EVENT_PAGE))))
+      .orderBy(asc(runSiteResults.siteId))
+    for (const row of page) {
+      if (!row.draws) continue
+      for (const m of DRAW_METRICS) {
+        const v = decodeSeries(row.draws.series[m], E)
+        for (let e = 0; e < E; e++) sums[m][e]! += v[e]!
+      }
+      const q = row.draws.yearTables ? decodeYearTables(row.draws.yearTables) : new Float64Array(0)
+      for (let j = 0; j + 3 < q.length; j += 4) {
+        const t = tables[q[j]!]!, y = q[j + 1]!
+        t.yearLosses[y]! += q[j + 2]!
+        if (q[j + 3]! > t.yearMaxEventLoss[y]!) t.yearMaxEventLoss[y] = q[j + 3]!
+      }
+    }
+  }
+  const at = (table: { returnPeriodYears: number, loss: number | null }[], T: number) => table.find(p => p.returnPeriodYears === T)?.loss ?? null
+  const evaluations = tables.map((t, e) => {
+    const summary = summariseYearLosses(t.yearLosses, t.yearMaxEventLoss)
+    return { averageAnnualLoss: summary.averageAnnualLoss, expectedFires: sums.ignition[e]!, aggregate: STANDARD_RETURN_PERIODS.map(T => at(summary.aggregate, T)), occurrence: STANDARD_RETURN_PERIODS.map(T => at(summary.occurrence, T)) }
+  })
+  const bands = yearDrawBands({ years: Yd, returnPeriods: STANDARD_RETURN_PERIODS, evaluations, tables }, central)
+  return {
+    draws, evaluations: E, clamped: 0, sensitivity: [],
+    bands: Object.fromEntries(DRAW_METRICS.map(m => [m, bandOf(sums[m].subarray(1))])) as DrawBands,
+    // AAL and expected fires: the sums of the sites' adjusted figures (the bands above); the return periods from the added tables.
+    years: { ...bands, averageAnnualLoss: bandOf(sums.expectedAnnualLoss.subarray(1)), expectedFires: bandOf(sums.ignition.subarray(1)) },
+  }
+}
+
 /** Returns true when this call finalised the run (only one caller ever does). */
 export async function finaliseRun(runId: string): Promise<boolean> {
   return useDb().transaction(async (tx) => {
@@ -153,6 +197,13 @@ export async function finaliseRun(runId: string): Promise<boolean> {
     if (run.assumptionDraws > 0 && run.mode === 'frequency') {
       const [version] = await tx.select({ parameters: assumptionSetVersions.parameters }).from(assumptionSetVersions).where(eq(assumptionSetVersions.id, run.assumptionVersionId))
       draws = await portfolioDraws(tx, runId, rows.map(r => r.siteId), parseAssumptions(version!.parameters), run.assumptionDraws, run.seed)
+    } else if (run.assumptionDraws > 0 && values.yearSummary) {
+      const ys = values.yearSummary
+      const at = (table: { returnPeriodYears: number, loss: number | null }[], T: number) => table.find(p => p.returnPeriodYears === T)?.loss ?? null
+      draws = await portfolioYearDraws(tx, runId, rows.map(r => r.siteId), run.assumptionDraws, run.years, {
+        averageAnnualLoss: ys.averageAnnualLoss, expectedFires: values.ignition.rate,
+        aggregate: STANDARD_RETURN_PERIODS.map(T => at(ys.aggregate, T)), occurrence: STANDARD_RETURN_PERIODS.map(T => at(ys.occurrence, T)),
+      })
     }
     await tx.insert(runPortfolioResults).values({
       draws,

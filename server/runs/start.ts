@@ -41,12 +41,16 @@ export async function startRun(input: StartRun, by: { userId: string | null, org
     ? clusteringFrame(snapshot.map(s => ({ latitudeDeg: s.facts.latitudeDeg, longitudeDeg: s.facts.longitudeDeg, flashDensity: s.site.flashDensity })))
     : null
   if (input.assumptionDraws > 0) {
-    if (input.mode !== 'frequency') throw new AppError(400, 'Assumption draws are available for frequency runs only (simulated years: not yet).')
     // Refuse at the start what the draws cannot take (paths, correlations), with the engine's reasons.
-    try { planAssumptionDraws(assumptions, { draws: input.assumptionDraws, runSeed: seed }) } catch (error) {
+    let drawnPaths: string[] = []
+    try { drawnPaths = planAssumptionDraws(assumptions, { draws: input.assumptionDraws, runSeed: seed }).entries.map(e => e.path) } catch (error) {
       // (illustrative ranges on assumptions the draws cannot carry are left out, not refused: the plan reports them)
       if (error instanceof EngineInputError) throw new AppError(400, `Assumption draws: ${error.issues.join('; ')}`)
       throw error
+    }
+    // Simulated years with storm clustering: the storm field is fixed at the central densities, so a drawn flash density has no storms to come from.
+    if (stormClustering && drawnPaths.includes('flashDensityFactor')) {
+      throw new AppError(400, 'Assumption draws with storm clustering: the flash-density factor cannot be uncertain (the storm field is fixed at the central densities). Remove its uncertainty or run without clustering.')
     }
   }
   const hash = inputHash({

@@ -98,6 +98,36 @@ describe('runs with assumption draws', () => {
     expect(wb.getWorksheet('Sensitivity')!.rowCount).toBe(1 + 2 * 3)
   }, 300_000)
 
+  it('simulated years: bands of AAL, fires and return-period losses, central figures unchanged, the same whatever the chunks', async () => {
+    const body = { mode: 'year', years: 3000, seed: 91 }
+    const one = await start({ ...body, assumptionDraws: 50, chunkSize: 5 })
+    const two = await start({ ...body, assumptionDraws: 50, chunkSize: 2 })
+    const none = await start({ ...body, assumptionDraws: 0, chunkSize: 5 })
+    for (const id of [one, two, none]) expect((await waitForRun(viewer, id, 240_000)).state).toBe('succeeded')
+    const { rows } = await pool.query(`SELECT run_id, draws, year_summary, ignition_rate FROM run_portfolio_results WHERE run_id = ANY($1)`, [[one, two, none]])
+    // eslint-disable-next-line @typescript-eslint/no-explicit-any
+    const by: Record<string, any> = Object.fromEntries(rows.map((r: { run_id: string }) => [r.run_id, r]))
+    // same inputs and seed, other chunks: bit-identical bands
+    expect(JSON.stringify(by[one].draws)).toBe(JSON.stringify(by[two].draws))
+    // the central figures are those of the same run without draws, bit for bit
+    expect(JSON.stringify(by[one].year_summary)).toBe(JSON.stringify(by[none].year_summary))
+    expect(by[one].ignition_rate).toBe(by[none].ignition_rate)
+    const d = by[one].draws
+    expect(d.draws).toBe(50)
+    expect(d.years.years).toBe(2000) // DRAW_YEARS: the run's 3000 years capped
+    const aal = d.years.averageAnnualLoss
+    expect(aal.p05).toBeLessThanOrEqual(aal.p50)
+    expect(aal.p50).toBeLessThanOrEqual(aal.p95)
+    const rp100 = d.years.aggregate.find((p: { returnPeriodYears: number }) => p.returnPeriodYears === 100)
+    expect(rp100.band === null || rp100.band.p05 <= rp100.band.p95).toBe(true)
+    expect(d.years.aggregate.map((p: { returnPeriodYears: number }) => p.returnPeriodYears)).toEqual([10, 25, 50, 100, 250, 500, 1000]) // the run's return periods
+    // the site view carries the bands and not the stored year tables
+    const { rows: [site] } = await pool.query(`SELECT site_id FROM run_site_results WHERE run_id = $1 ORDER BY ignition_rate DESC LIMIT 1`, [one])
+    const detail = await (await viewer.get(`/api/runs/${one}/sites/${site.site_id}`)).json()
+    expect(detail.assumptionBands.years.averageAnnualLoss).not.toBeUndefined()
+    expect(detail.assumptionBands.yearTables).toBeUndefined()
+  }, 300_000)
+
   it('a run without draws says so; the option is refused where it cannot work', async () => {
     const plain = await analyst.post('/api/runs', { portfolioId, assumptionVersionId: plainVersionId, ...quick, seed: 3 })
     const id = (await plain.json()).id
@@ -106,8 +136,10 @@ describe('runs with assumption draws', () => {
     const noUncertainty = await analyst.post('/api/runs', { portfolioId, assumptionVersionId: plainVersionId, ...quick, assumptionDraws: 50 })
     expect(noUncertainty.status).toBe(400)
     expect(await noUncertainty.text()).toMatch(/gives no assumption an uncertainty/)
-    const years = await analyst.post('/api/runs', { portfolioId, assumptionVersionId: versionId, mode: 'year', years: 1000, assumptionDraws: 50 })
-    expect(years.status).toBe(400)
+    // simulated years with storm clustering refuse a drawn flash-density factor (the storm field is fixed at the central densities)
+    const clustered = await analyst.post('/api/runs', { portfolioId, assumptionVersionId: versionId, mode: 'year', years: 1000, stormClustering: true, assumptionDraws: 50 })
+    expect(clustered.status).toBe(400)
+    expect(await clustered.text()).toMatch(/storm clustering/)
     const tooFew = await analyst.post('/api/runs', { portfolioId, assumptionVersionId: versionId, ...quick, assumptionDraws: 10 })
     expect(tooFew.status).toBe(400)
     expect(await tooFew.text()).toMatch(/0 \(off\) or 50–500/)

@@ -21,7 +21,7 @@ export default defineEventHandler(async (event) => {
       currency: member.currency,
       headline: headline(portfolio.figures, portfolio.lossSplit, summary),
       /** Assumption uncertainty: 5/50/95 % across K draws and the sensitivity indices; null: no assumption draws. */
-      assumptionBands: portfolio.draws ? { draws: portfolio.draws.draws, bands: portfolio.draws.bands, sensitivity: portfolio.draws.sensitivity, leftOut: portfolio.draws.leftOut ?? [] } : null,
+      assumptionBands: portfolio.draws ? { draws: portfolio.draws.draws, bands: portfolio.draws.bands, sensitivity: portfolio.draws.sensitivity, leftOut: portfolio.draws.leftOut ?? [], ...(portfolio.draws.years ? { years: portfolio.draws.years } : {}) } : null,
       exceedance: exceedanceSeries(summary, run.portfolioName),
       accumulation: accumulationOf(summary),
       returnPeriods: summary ? { aggregate: summary.aggregate, occurrence: summary.occurrence, intervals: summary.intervals ?? null } : null,
