@@ -97,6 +97,9 @@ async function main() {
         const b = draws.bands
         const range = (x: { p05: number, p95: number }) => `${formatFrequency(x.p05)}–${formatFrequency(x.p95)}`
         console.error(`Assumption band 5–95 % over ${draws.draws} draws (apart from the simulation interval): expected fires ${range(b.ignition)}; induced sparking ${range(b.sparking)}; direct strikes ${range(b.direct)}; AAL ${formatMoney(b.expectedAnnualLoss.p05, portfolio.currency)}–${formatMoney(b.expectedAnnualLoss.p95, portfolio.currency)}/yr.`)
+        for (const row of draws.years?.aggregate.filter(r => r.returnPeriodYears === 100 || r.returnPeriodYears === 250) ?? []) {
+          console.error(`Assumption band 5–95 % of the aggregate loss at ${row.returnPeriodYears} years (draws re-simulated over ${draws.years!.years} years): ${row.band ? `${formatMoney(row.band.p05, portfolio.currency)}–${formatMoney(row.band.p95, portfolio.currency)}` : 'too few losses in the draws\' years'}.`)
+        }
         const top = draws.sensitivity[0]?.indices[0]
         if (top) console.error(`Largest share of the expected-fires band: ${top.label} (total effect ${(100 * top.totalEffect.estimate).toFixed(0)} % ± ${(100 * top.totalEffect.se).toFixed(0)} %).`)
       } else console.error('No assumption draws in this run.')

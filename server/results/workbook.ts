@@ -79,6 +79,13 @@ export async function writeResultsWorkbook(input: WorkbookInput): Promise<Buffer
       bandRow('Expected fires, /yr', d.bands.ignition, freq), bandRow('Induced sparking, /yr', d.bands.sparking, freq),
       bandRow('Direct strikes on tanks, /yr', d.bands.direct, freq), bandRow(`Average annual loss (AAL), ${c}/yr`, d.bands.expectedAnnualLoss, MONEY),
     )
+    // Simulated-years runs: the return-period losses' bands (each draw re-simulated over fewer years; empty: too few losses).
+    for (const T of [100, 250]) {
+      const y = d.years
+      if (!y) break
+      const b = y.aggregate.find(r => r.returnPeriodYears === T)?.band ?? null
+      rows.push({ cells: [`Aggregate loss (year total) at ${T} years, ${c} (draws re-simulated over ${y.years} years)`, b?.p05 ?? null, b?.p50 ?? null, b?.p95 ?? null], numFmt: MONEY })
+    }
   }
   rows.push(blankRow)
   rows.push(

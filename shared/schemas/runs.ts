@@ -33,8 +33,9 @@ export const startRunSchema = z.object({
    */
   stormClustering: z.boolean('Storm clustering is on (true) or off (false).').default(false),
   /**
-   * Assumption uncertainty: K draws of the uncertain assumptions (0: off; otherwise 50–500), frequency
-   * mode. Adds the 5–95 % assumption band and the sensitivity indices to the results.
+   * Assumption uncertainty: K draws of the uncertain assumptions (0: off; otherwise 50–500). Adds the
+   * 5–95 % assumption band to the results, and in frequency mode the sensitivity indices; in simulated
+   * years the bands of AAL, expected fires and the return-period losses (draws re-simulated over at most 2,000 years).
    */
   assumptionDraws: z.number().int('Draws are a whole number.').refine(v => v === 0 || (v >= 50 && v <= 500), 'Assumption draws are 0 (off) or 50–500.').default(0),
   /** Sites per chunk of work; results do not depend on it. */

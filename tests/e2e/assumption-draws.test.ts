@@ -79,4 +79,35 @@ describe('a run with assumption draws', () => {
     await saveScreenshot(page, 'draws-site')
     expect(guarded.outsideRequests).toEqual([])
   }, 600_000)
+
+  it('a simulated-years run with draws shows the band of the losses at 100 and 250 years beside their simulation interval', async () => {
+    await page.goto(`${inject('baseUrl')}/runs`, { waitUntil: 'networkidle' })
+    await page.locator('select[name="assumptionVersionId"]').selectOption({ label: versionLabel })
+    await page.getByLabel('Simulated years', { exact: true }).check()
+    await page.locator('input[name="years"]').fill('2000')
+    await page.getByLabel('Assumption uncertainty: K draws').check()
+    await page.getByLabel('Number of assumption draws (50–500)').fill('50')
+    expect(await page.locator('form').textContent()).toContain('re-simulated over at most 2,000 years')
+    await page.getByRole('button', { name: 'Start run' }).click()
+    await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/)
+    const runId = page.url().split('/').pop()!
+    let state = ''
+    for (let i = 0; i < 480 && state !== 'succeeded'; i++) {
+      state = (await page.evaluate(async id => (await fetch(`/api/runs/${id}`)).json(), runId) as { state: string }).state
+      if (state === 'failed') throw new Error('the years run with draws failed')
+      if (state !== 'succeeded') await page.waitForTimeout(1000)
+    }
+    expect(state).toBe('succeeded')
+    await page.goto(`${inject('baseUrl')}/results/${runId}`, { waitUntil: 'networkidle' })
+    const tiles = page.getByTestId('headline-tiles')
+    await tiles.locator('[data-tile="loss100"]').waitFor()
+    expect(await tiles.locator('[data-tile="ignition"] [data-role="assumption-band"]').textContent()).toMatch(/^assumption band 5–95 % .* \/yr$/)
+    expect(await tiles.locator('[data-tile="aal"] [data-role="assumption-band"]').textContent()).toMatch(/^assumption band 5–95 % USD/)
+    // The demo portfolio loses in most of 2,000 years, so the 1-in-100 loss has a band of its own.
+    expect(await tiles.locator('[data-tile="loss100"] [data-role="interval"]').count()).toBe(1)
+    expect(await tiles.locator('[data-tile="loss100"] [data-role="assumption-band"]').textContent()).toMatch(/^assumption band 5–95 % USD/)
+    expect(await tiles.textContent()).toContain('Return-period bands: each draw re-simulated over 2,000 years')
+    await saveScreenshot(page, 'draws-years-dashboard')
+    expect(guarded.outsideRequests).toEqual([])
+  }, 600_000)
 })
