@@ -76,10 +76,12 @@ describe('group indices on the Sobol\' g-function', () => {
 
 describe('the plan takes natural groups when the assumptions are many', () => {
   const K = 6
-  it('the 26 illustrative default ranges: at most MAX_SINGLE_FACTORS group factors, every assumption in exactly one', () => {
+  it('the 26 illustrative default ranges: 7 group factors, every assumption in exactly one', () => {
     const set = parseAssumptions({ uncertainty: illustrativeUncertainty() })
     const plan = planAssumptionDraws(set, { draws: K, runSeed: 1 })
     expect(plan.entries.length).toBe(26)
+    // current law, coupling, sparking levels, ignition, damage, fire spread, flash density
+    expect(plan.factors.length).toBe(7)
     expect(plan.factors.length).toBeLessThanOrEqual(MAX_SINGLE_FACTORS)
     const paths = plan.factors.flatMap((f) => f.paths).sort()
     expect(paths).toEqual(plan.entries.map((e) => e.path).sort())
@@ -89,7 +91,8 @@ describe('the plan takes natural groups when the assumptions are many', () => {
       if (f.paths.length > 1) expect(f.members?.map((m) => m.path)).toEqual(f.paths)
     }
     const sparking = plan.factors.find((f) => f.paths.includes('thresholds.sharp_device.u50Kv'))!
-    expect(sparking.paths.sort()).toEqual(['thresholds.sharp_device.sigma', 'thresholds.sharp_device.u50Kv'])
+    expect(sparking.paths.length).toBe(8) // U50 and σ of the 4 component classes
+    expect(sparking.paths.every((p) => p.startsWith('thresholds.'))).toBe(true)
     expect(calibrationPageFor(sparking.path)?.to).toBe('/calibration/impulse')
     // the cost: 1 + K·(2 + factors) evaluations; A_B^g swaps the whole group
     expect(evaluationCount(plan)).toBe(1 + K * (2 + plan.factors.length))
@@ -98,18 +101,18 @@ describe('the plan takes natural groups when the assumptions are many', () => {
     for (let j = 0; j < K; j++) {
       const t = plan.ab[g]![j]!.assumptions.thresholds.sharp_device
       expect(t).toEqual(plan.b[j]!.assumptions.thresholds.sharp_device)
-      expect(plan.ab[g]![j]!.assumptions.thresholds.grounded_pipe).toEqual(plan.a[j]!.assumptions.thresholds.grounded_pipe)
+      expect(plan.ab[g]![j]!.assumptions.thresholds.grounded_pipe).toEqual(plan.b[j]!.assumptions.thresholds.grounded_pipe)
+      expect(plan.ab[g]![j]!.assumptions.ignitionGivenSpark).toEqual(plan.a[j]!.assumptions.ignitionGivenSpark)
     }
   })
   it('few assumptions stay one by one; a correlated pair stays in one factor when grouped', () => {
     const few = parseAssumptions({ uncertainty: { entries: illustrativeUncertainty().entries.slice(0, 5), correlations: [] } })
     expect(planAssumptionDraws(few, { draws: K, runSeed: 1 }).factors.length).toBe(5)
     const u = illustrativeUncertainty()
-    u.correlations.push({ a: 'flashDensityFactor', b: 'thresholds.carbon_fibre.u50Kv', rho: 0.4 })
+    u.correlations.push({ a: 'flashDensityFactor', b: 'returnStrokeVelocity', rho: 0.4 })
     const plan = planAssumptionDraws(parseAssumptions({ uncertainty: u }), { draws: K, runSeed: 1 })
     const f = plan.factors.find((x) => x.paths.includes('flashDensityFactor'))!
-    expect(f.paths).toContain('thresholds.carbon_fibre.u50Kv')
-    expect(f.paths).toContain('thresholds.carbon_fibre.sigma')
+    expect(f.paths.sort()).toEqual(['flashDensityFactor', 'returnStrokeVelocity'])
     expect(plan.factors.length).toBeLessThanOrEqual(MAX_SINGLE_FACTORS)
   })
 })
