@@ -1,6 +1,8 @@
 // Assumption-draws benchmark (issue "How sure are we"). Prints the cost of K draws over the
 // 5,000-tank engine benchmark portfolio (bench/engine-portfolio.ts) against K single runs.
-//   npx tsx bench/draws.ts [--sites N] [--draws K]     (wire as `npm run bench:draws`)
+//   npx tsx bench/draws.ts [--sites N] [--draws K] [--defaults]     (wire as `npm run bench:draws`)
+// --defaults draws the 26 illustrative default ranges (uncertainty-defaults.ts), which the plan
+// takes in natural groups (Sobol' group indices); without it, the 11 benchmark ranges below.
 // A "single run" is the central frequency-mode figure of every site (simulateSiteFrequency at
 // 2 % RSE, what a run without draws computes); "draws" is what a run with draws adds: the shared
 // flashes, every evaluation of the design (central, A, B, A_B^g) and the bands and indices.
@@ -11,6 +13,7 @@ import { planAssumptionDraws, evaluationCount } from '../shared/engine/draws'
 import { DRAW_FLASHES_PER_SITE, siteDrawValues, summariseSiteDraws } from '../shared/engine/draw-figures'
 import { simulateSiteYears } from '../shared/engine/years'
 import { DRAW_YEARS, siteYearDrawValues } from '../shared/engine/year-draws'
+import { illustrativeUncertainty } from '../shared/engine/uncertainty-defaults'
 import { generatePortfolio } from './engine-portfolio'
 import { timed } from './cpu-time'
 
@@ -27,7 +30,7 @@ const line = (label: string, text: string) => console.log(`${label.padEnd(52)} $
 // flash density, the current law, ignition, damage and spread (invented ranges for the benchmark).
 const L = (path: string, median: number, sigmaLn: number) => ({ path, distribution: { kind: 'lognormal' as const, median, sigmaLn }, basis: 'illustrative' as const, note: 'benchmark' })
 const U = (path: string, min: number, max: number) => ({ path, distribution: { kind: 'uniform' as const, min, max }, basis: 'illustrative' as const, note: 'benchmark' })
-const assumptions = parseAssumptions({ uncertainty: {
+const benchmarkRanges = parseAssumptions({ uncertainty: {
   entries: [
     L('flashDensityFactor', 1, 0.25),
     L('thresholds.sharp_device.u50Kv', 70, 0.25), U('thresholds.sharp_device.sigma', 0.2, 0.4),
@@ -38,13 +41,14 @@ const assumptions = parseAssumptions({ uncertainty: {
   ],
   correlations: [{ a: 'thresholds.sharp_device.u50Kv', b: 'thresholds.sharp_device.sigma', rho: -0.3 }],
 } })
+const assumptions = process.argv.includes('--defaults') ? parseAssumptions({ uncertainty: illustrativeUncertainty() }) : benchmarkRanges
 
 const all = generatePortfolio(1000, 5000)
 const sites = all.slice(0, SITES)
 const tanks = sites.reduce((n, s) => n + s.tanks.length, 0)
-console.log(`assumption draws: ${sites.length} sites / ${tanks} tanks of the 5,000-tank benchmark portfolio, K = ${K}`)
+console.log(`assumption draws: ${assumptions.uncertainty.entries.length} uncertain assumptions, ${sites.length} sites / ${tanks} tanks of the 5,000-tank benchmark portfolio, K = ${K}`)
 const plan = timed(() => planAssumptionDraws(assumptions, { draws: K, runSeed: 1 }))
-line('draw plan (matrices A, B, A_B^g; validated sets)', `${plan.cpu.toFixed(2)} s CPU, ${plan.value.factors.length} factors, ${evaluationCount(plan.value)} evaluations, ${plan.value.clamped} sd clamped`)
+line('draw plan (matrices A, B, A_B^g; validated sets)', `${plan.cpu.toFixed(2)} s CPU, ${plan.value.factors.length} factors (${plan.value.factors.filter((f) => f.members).length} groups), ${evaluationCount(plan.value)} evaluations, ${plan.value.clamped} sd clamped`)
 
 const central = timed(() => sites.map((s) => simulateSiteFrequency(s, assumptions, { runSeed: 1 })))
 line('single run (central figures, 2 % RSE)', `${central.cpu.toFixed(1)} s CPU (${central.wall.toFixed(1)} s wall)`)

@@ -401,7 +401,7 @@ export function sensitivityOf(series: Float64Array, plan: Pick<DrawPlan, 'draws'
   const s = sobolIndices({ fA, fB, fAB }, { seed: `${seed}|${metric}` })
   return {
     metric, baseSamples: K,
-    indices: plan.factors.map((f, g) => ({ path: f.path, label: f.label, unit: f.unit, firstOrder: s.firstOrder[g]!, totalEffect: s.totalEffect[g]! }))
+    indices: plan.factors.map((f, g) => ({ path: f.path, label: f.label, unit: f.unit, ...(f.members ? { members: f.members } : {}), firstOrder: s.firstOrder[g]!, totalEffect: s.totalEffect[g]! }))
       .sort((x, y) => y.totalEffect.estimate - x.totalEffect.estimate),
   }
 }

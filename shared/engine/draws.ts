@@ -48,8 +48,42 @@ export const PATHS_REFUSED_FOR_DRAWS: Readonly<Record<string, string>> = {
 /** One draw: a complete assumption set and the flash-density multiplier. */
 export interface AssumptionDraw { assumptions: AssumptionSet; flashDensityFactor: number }
 
-/** A factor of the sensitivity analysis: one assumption, or correlated assumptions taken together. */
-export interface DrawFactor { paths: string[]; path: string; label: string; unit: string }
+/**
+ * A factor of the sensitivity analysis: one assumption, correlated assumptions taken together, or
+ * (when there are more than MAX_SINGLE_FACTORS factors) a natural group of assumptions whose indices
+ * are Sobol' group indices; `members` lists what a group of more than one assumption holds.
+ */
+export interface DrawFactor { paths: string[]; path: string; label: string; unit: string; members?: { path: string; label: string; unit: string }[] }
+
+/**
+ * Most factors a plan analyses one by one. Each factor costs K evaluations (1 + K·(2 + factors) in
+ * all); above this the assumptions are taken in natural groups (naturalGroupOf), which keeps the
+ * cost of a run with draws within 0.2 × K single runs on the benchmark portfolio (bench/draws.ts).
+ */
+export const MAX_SINGLE_FACTORS = 10
+
+/**
+ * The natural group of an assumption, named so that a group matches a calibration page where there
+ * is one: the sparking levels and scatter of the component classes (impulse-test calibration), the
+ * current law and the flash density (lightning calibration), the coupling, ignition, damage, fire
+ * spread; anything else stands alone. `coarse` (used only when the fine groups are still more than
+ * MAX_SINGLE_FACTORS) takes every other assumption into one "other" group, at most 8 groups
+ * whatever the number of assumptions.
+ */
+export function naturalGroupOf(path: string, coarse = false): { key: string; label: string } {
+  const t = /^thresholds\.([a-z_]+)\.(u50Kv|sigma)$/.exec(path)
+  // Every class together: each sparking factor costs a full set of sparking probabilities per
+  // evaluation (draw-figures.ts), so one group per class (4 of them) kept the default ranges at
+  // 0.26 × K single runs; taken together, below 0.2 × K.
+  if (t) return { key: 'thresholds', label: 'Sparking levels and scatter (every component class)' }
+  if (['powerLawMedianKa', 'powerLawExponent', 'lognormalMedianKa', 'lognormalBeta'].includes(path)) return { key: 'currentLaw', label: 'Peak-current law' }
+  if (path === FLASH_DENSITY_FACTOR_PATH) return { key: 'flashDensity', label: 'Flash density' }
+  if (path === 'returnStrokeVelocity') return { key: 'coupling', label: 'Coupling (return-stroke velocity)' }
+  if (/^ignition/.test(path) || path === 'vapourControlFactor') return { key: 'ignition', label: 'Ignition' }
+  if (/^damageRatio\./.test(path)) return { key: 'damage', label: 'Damage ratios' }
+  if (/^fireSpread\./.test(path)) return { key: 'fireSpread', label: 'Fire spread' }
+  return coarse ? { key: 'other', label: 'Other assumptions' } : { key: path, label: pathLabel(path).label }
+}
 
 export interface DrawPlan {
   /** K: rows of A (the band draws) and of B. */
@@ -248,6 +282,21 @@ export function planAssumptionDraws(central: AssumptionSet, options: { draws: nu
     corr[i]![j] = c.rho; corr[j]![i] = c.rho
     links.push([i, j])
   }
+  // Too many factors for one by one: link the members of each natural group too, so the factors are
+  // the natural groups (correlated assumptions always stay in one factor, whatever their groups).
+  const grouped = correlationGroups(n, links).length > MAX_SINGLE_FACTORS
+  const groupLinks = (coarse: boolean): [number, number][] => {
+    const first = new Map<string, number>()
+    const out: [number, number][] = []
+    entries.forEach((e, i) => {
+      const key = naturalGroupOf(e.path, coarse).key
+      if (first.has(key)) out.push([first.get(key)!, i])
+      else first.set(key, i)
+    })
+    return out
+  }
+  const coarse = grouped && correlationGroups(n, [...links, ...groupLinks(false)]).length > MAX_SINGLE_FACTORS
+  if (grouped) links.push(...groupLinks(coarse))
   const groups = correlationGroups(n, links)
   const chol = groups.map((g) => {
     const l = cholesky(g.map((i) => g.map((j) => corr[i]![j]!)))
@@ -304,9 +353,13 @@ export function planAssumptionDraws(central: AssumptionSet, options: { draws: nu
   const labelled = entries.map((e) => ({ path: e.path, ...pathLabel(e.path) }))
   const factors = groups.map((g): DrawFactor => {
     const members = g.map((i) => labelled[i]!)
-    return members.length === 1
-      ? { paths: [members[0]!.path], path: members[0]!.path, label: members[0]!.label, unit: members[0]!.unit }
-      : { paths: members.map((m) => m.path), path: members.map((m) => m.path).join(' + '), label: `${members.map((m) => m.label).join(' and ')} (correlated, taken together)`, unit: '—' }
+    if (members.length === 1) return { paths: [members[0]!.path], path: members[0]!.path, label: members[0]!.label, unit: members[0]!.unit }
+    const paths = members.map((m) => m.path)
+    const names = [...new Set(paths.map((p) => naturalGroupOf(p, coarse).label))]
+    const label = grouped
+      ? `${names.join(' and ')} (group of ${members.length})`
+      : `${members.map((m) => m.label).join(' and ')} (correlated, taken together)`
+    return { paths, path: paths.join(' + '), label, unit: '—', members }
   })
   return {
     draws: K, entries: labelled, factors, leftOut,

@@ -23,6 +23,8 @@ export interface SensitivityIndex {
   path: string
   label: string
   unit: string
+  /** For a group of assumptions (correlated, or a natural group of a plan with many factors): what it holds. Group indices (Sobol' indices of the group's inputs taken together). */
+  members?: { path: string; label: string; unit: string }[]
   firstOrder: IndexEstimate
   totalEffect: IndexEstimate
 }

@@ -50,6 +50,14 @@ const LIGHTNING: CalibrationPage = { to: '/calibration/lightning', title: 'Calib
  * a power law, which it turns into the log-normal).
  */
 export function calibrationPageFor(path: string): CalibrationPage | null {
+  // A group (its member paths joined by " + "): the page of its first member that has one.
+  if (path.includes(' + ')) {
+    for (const p of path.split(' + ')) {
+      const page = calibrationPageFor(p)
+      if (page) return page
+    }
+    return null
+  }
   if (/^thresholds\.[a-z_]+\.(u50Kv|sigma)$/.test(path)) return IMPULSE
   if (['lognormalMedianKa', 'lognormalBeta', 'powerLawMedianKa', 'powerLawExponent', 'flashDensityFactor'].includes(path)) return LIGHTNING
   return null

@@ -19,7 +19,8 @@ const uncertainty = {
     { path: 'thresholds.sharp_device.u50Kv', distribution: { kind: 'lognormal', median: 70, sigmaLn: 0.25 }, basis: 'illustrative', note: 'browser test range' },
     { path: 'thresholds.grounded_pipe.u50Kv', distribution: { kind: 'lognormal', median: 100, sigmaLn: 0.25 }, basis: 'illustrative', note: 'browser test range' },
   ],
-  correlations: [],
+  // correlated sparking levels are taken together: one group of two, shown as a group with its members
+  correlations: [{ a: 'thresholds.sharp_device.u50Kv', b: 'thresholds.grounded_pipe.u50Kv', rho: 0.5 }],
 }
 
 beforeAll(async () => {
@@ -63,7 +64,12 @@ describe('a run with assumption draws', () => {
     expect(await page.getByTestId('headline-tiles').textContent()).toContain('across 50 draws of the uncertain assumptions')
     const sensitivity = page.getByTestId('sensitivity')
     await sensitivity.waitFor()
-    expect(await sensitivity.locator('table[data-metric="expectedFires"] tbody tr').count()).toBe(3)
+    expect(await sensitivity.locator('table[data-metric="expectedFires"] tbody tr').count()).toBe(2)
+    // the group says that its indices are group indices and what it holds
+    const groups = sensitivity.getByTestId('sensitivity-groups')
+    expect(await groups.textContent()).toContain('Group indices')
+    expect(await groups.locator('li').count()).toBe(1)
+    expect(await groups.locator('li').textContent()).toMatch(/sparking.*;.*/i)
     // The chart of each figure is drawn, and its top entry links to the page that calibrates it: every
     // uncertain assumption of this set has one (sparking levels: impulse tests; flash density: lightning records).
     await waitForDrawnChart(page, sensitivity.locator('[data-chart-metric="expectedFires"]'))
