@@ -8,6 +8,7 @@ import { assumptionSetVersions, runChunks, runs, runSiteSnapshots } from '../db/
 import type { SiteComputation } from './compute'
 import { notifyRunEnded } from './ending'
 import { finaliseRun } from './finalise'
+import { storeRunDocuments } from '../results/documents'
 import { storeChunk } from './store'
 import { computeOnThread } from './thread-pool'
 import { epochMs, threadTransfer, type ChunkTiming } from './timing'
@@ -97,6 +98,10 @@ export async function workChunk(runId: string, chunkIndex: number, queuedAt: num
 
 async function finaliseIfComplete(runId: string): Promise<boolean> {
   const finalised = await finaliseRun(runId)
-  if (finalised) await notifyRunEnded(runId)
+  if (finalised) {
+    // The result views' documents, stored now so that no viewer waits for their build.
+    await storeRunDocuments(useDb(), runId).catch((error: Error) => console.error(`[runs] result documents of ${runId}: ${error.message}`))
+    await notifyRunEnded(runId)
+  }
   return finalised
 }

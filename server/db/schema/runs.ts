@@ -189,3 +189,20 @@ export const runPortfolioResults = pgTable('run_portfolio_results', {
   computedAt: timestamp('computed_at', { withTimezone: true }).notNull().defaultNow(),
 })
 
+
+/**
+ * The result views' answers of a succeeded run (dashboard, site list), serialised once and kept:
+ * results never change, so every web process and every restart reads the stored JSON instead of
+ * rebuilding it (server/results/documents.ts). `version` names the engine of the run and the format
+ * of the view; a document of another version is rebuilt on its next read. Runs finished before this
+ * table existed get theirs on first read.
+ */
+export const runResultDocuments = pgTable('run_result_documents', {
+  runId: uuid('run_id').notNull().references(() => runs.id, { onDelete: 'cascade' }),
+  /** 'dashboard' | 'sites'. */
+  view: text('view').notNull(),
+  currency: text('currency').notNull(),
+  version: text('version').notNull(),
+  body: text('body').notNull(),
+  builtAt: timestamp('built_at', { withTimezone: true }).notNull().defaultNow(),
+}, t => [primaryKey({ columns: [t.runId, t.view, t.currency] })])
