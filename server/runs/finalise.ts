@@ -7,7 +7,7 @@ import { assumptionSetVersions, runPortfolioResults, runs, runSiteResults } from
 import { parseAssumptions, type AssumptionSet } from '../../shared/engine/assumptions'
 import { evaluationCount } from '../../shared/engine/draws'
 import { bandOf, DRAW_METRICS, drawsOf, sensitivityOf, type DrawBands, type DrawMetric } from '../../shared/engine/draw-figures'
-import type { StoredPortfolioDraws } from '../../shared/results/draws'
+import type { StoredPortfolioDraws, StoredSiteDraws } from '../../shared/results/draws'
 import { decodeSeries, decodeYearTables, runDrawPlan } from './draws'
 import { DRAW_YEARS, yearDrawBands, type YearDrawFigures } from '../../shared/engine/year-draws'
 import type { Figure } from './compute'
@@ -78,6 +78,25 @@ function withIntervals<T extends object>(summary: T, table: { yearLosses: Float6
   return { ...summary, intervals: { aggregate: intervals(aggregate), occurrence: intervals(occurrence) } }
 }
 
+/** Each site's stored draws, a page at a time in site-id order (so sums are the same whatever the workers). */
+async function forEachSiteDraws(tx: Database, runId: string, siteIds: string[], each: (draws: StoredSiteDraws) => void): Promise<void> {
+  for (let i = 0; i < siteIds.length; i += EVENT_PAGE) {
+    const page = await tx.select({ draws: runSiteResults.draws }).from(runSiteResults)
+      .where(and(eq(runSiteResults.runId, runId), inArray(runSiteResults.siteId, siteIds.slice(i, i + EVENT_PAGE))))
+      .orderBy(asc(runSiteResults.siteId))
+    for (const row of page) if (row.draws) each(row.draws)
+  }
+}
+
+/** Adds a site's per-evaluation figures into the portfolio's sums. */
+function addSeries(sums: Record<DrawMetric, Float64Array>, d: StoredSiteDraws, E: number): void {
+  for (const m of DRAW_METRICS) {
+    const v = decodeSeries(d.series[m], E)
+    const into = sums[m]
+    for (let e = 0; e < E; e++) into[e]! += v[e]!
+  }
+}
+
 /**
  * Runs with assumption draws: the portfolio's figure per evaluation is the sum of the sites' (site-id
  * order, a page at a time), its bands the 5/50/95 % points over the draws, its sensitivity indices
@@ -87,19 +106,7 @@ async function portfolioDraws(tx: Database, runId: string, siteIds: string[], as
   const plan = runDrawPlan(assumptions, draws, seed)
   const E = evaluationCount(plan)
   const sums = Object.fromEntries(DRAW_METRICS.map(m => [m, new Float64Array(E)])) as Record<DrawMetric, Float64Array>
-  for (let i = 0; i < siteIds.length; i += EVENT_PAGE) {
-    const page = await tx.select({ draws: runSiteResults.draws }).from(runSiteResults)
-      .where(and(eq(runSiteResults.runId, runId), inArray(runSiteResults.siteId, siteIds.slice(i, i + EVENT_PAGE))))
-      .orderBy(asc(runSiteResults.siteId))
-    for (const row of page) {
-      if (!row.draws) continue
-      for (const m of DRAW_METRICS) {
-        const v = decodeSeries(row.draws.series[m], E)
-        const into = sums[m]
-        for (let e = 0; e < E; e++) into[e]! += v[e]!
-      }
-    }
-  }
+  await forEachSiteDraws(tx, runId, siteIds, (d) => { addSeries(sums, d, E) })
   return {
     draws, evaluations: E, clamped: plan.clamped, leftOut: plan.leftOut,
     bands: Object.fromEntries(DRAW_METRICS.map(m => [m, bandOf(drawsOf(sums[m], draws))])) as DrawBands,
@@ -118,24 +125,15 @@ async function portfolioYearDraws(tx: Database, runId: string, siteIds: string[]
   const Yd = Math.min(years, DRAW_YEARS)
   const sums = Object.fromEntries(DRAW_METRICS.map(m => [m, new Float64Array(E)])) as Record<DrawMetric, Float64Array>
   const tables = Array.from({ length: E }, () => ({ yearLosses: new Float64Array(Yd), yearMaxEventLoss: new Float64Array(Yd) }))
-  for (let i = 0; i < siteIds.length; i += EVENT_PAGE) {
-    const page = await tx.select({ draws: runSiteResults.draws }).from(runSiteResults)
-      .where(and(eq(runSiteResults.runId, runId), inArray(runSiteResults.siteId, siteIds.slice(i, i + EVENT_PAGE))))
-      .orderBy(asc(runSiteResults.siteId))
-    for (const row of page) {
-      if (!row.draws) continue
-      for (const m of DRAW_METRICS) {
-        const v = decodeSeries(row.draws.series[m], E)
-        for (let e = 0; e < E; e++) sums[m][e]! += v[e]!
-      }
-      const q = row.draws.yearTables ? decodeYearTables(row.draws.yearTables) : new Float64Array(0)
-      for (let j = 0; j + 3 < q.length; j += 4) {
-        const t = tables[q[j]!]!, y = q[j + 1]!
-        t.yearLosses[y]! += q[j + 2]!
-        if (q[j + 3]! > t.yearMaxEventLoss[y]!) t.yearMaxEventLoss[y] = q[j + 3]!
-      }
+  await forEachSiteDraws(tx, runId, siteIds, (d) => {
+    addSeries(sums, d, E)
+    const q = d.yearTables ? decodeYearTables(d.yearTables) : new Float64Array(0)
+    for (let j = 0; j + 3 < q.length; j += 4) {
+      const t = tables[q[j]!]!, y = q[j + 1]!
+      t.yearLosses[y]! += q[j + 2]!
+      if (q[j + 3]! > t.yearMaxEventLoss[y]!) t.yearMaxEventLoss[y] = q[j + 3]!
     }
-  }
+  })
   const at = (table: { returnPeriodYears: number, loss: number | null }[], T: number) => table.find(p => p.returnPeriodYears === T)?.loss ?? null
   const evaluations = tables.map((t, e) => {
     const summary = summariseYearLosses(t.yearLosses, t.yearMaxEventLoss)

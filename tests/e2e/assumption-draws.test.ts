@@ -37,6 +37,21 @@ beforeAll(async () => {
 }, 120_000)
 afterAll(async () => { await browser?.close() })
 
+/** Starts the run the form holds and waits until it has succeeded; its id. */
+async function startAndWait(): Promise<string> {
+  await page.getByRole('button', { name: 'Start run' }).click()
+  await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/)
+  const runId = page.url().split('/').pop()!
+  let state = ''
+  for (let i = 0; i < 480 && state !== 'succeeded'; i++) {
+    state = (await page.evaluate(async id => (await fetch(`/api/runs/${id}`)).json(), runId) as { state: string }).state
+    if (state === 'failed') throw new Error(`the run with draws ${runId} failed`)
+    if (state !== 'succeeded') await page.waitForTimeout(1000)
+  }
+  expect(state).toBe('succeeded')
+  return runId
+}
+
 describe('a run with assumption draws', () => {
   it('is started with K draws, and its results show the simulation interval and the assumption band apart, and what to calibrate next', async () => {
     await page.goto(`${inject('baseUrl')}/runs`, { waitUntil: 'networkidle' })
@@ -45,16 +60,7 @@ describe('a run with assumption draws', () => {
     await page.getByLabel('Number of assumption draws (50–500)').fill('50')
     await page.locator('input[name="targetRse"]').fill('10')
     await saveScreenshot(page, 'draws-run-form')
-    await page.getByRole('button', { name: 'Start run' }).click()
-    await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/)
-    const runId = page.url().split('/').pop()!
-    let state = ''
-    for (let i = 0; i < 480 && state !== 'succeeded'; i++) {
-      state = (await page.evaluate(async id => (await fetch(`/api/runs/${id}`)).json(), runId) as { state: string }).state
-      if (state === 'failed') throw new Error('the run with draws failed')
-      if (state !== 'succeeded') await page.waitForTimeout(1000)
-    }
-    expect(state).toBe('succeeded')
+    const runId = await startAndWait()
 
     await page.goto(`${inject('baseUrl')}/results/${runId}`, { waitUntil: 'networkidle' })
     const fires = page.getByTestId('headline-tiles').locator('[data-tile="ignition"]')
@@ -94,16 +100,7 @@ describe('a run with assumption draws', () => {
     await page.getByLabel('Assumption uncertainty: K draws').check()
     await page.getByLabel('Number of assumption draws (50–500)').fill('50')
     expect(await page.locator('form').textContent()).toContain('re-simulated over at most 2,000 years')
-    await page.getByRole('button', { name: 'Start run' }).click()
-    await page.waitForURL(/\/runs\/[0-9a-f-]{36}$/)
-    const runId = page.url().split('/').pop()!
-    let state = ''
-    for (let i = 0; i < 480 && state !== 'succeeded'; i++) {
-      state = (await page.evaluate(async id => (await fetch(`/api/runs/${id}`)).json(), runId) as { state: string }).state
-      if (state === 'failed') throw new Error('the years run with draws failed')
-      if (state !== 'succeeded') await page.waitForTimeout(1000)
-    }
-    expect(state).toBe('succeeded')
+    const runId = await startAndWait()
     await page.goto(`${inject('baseUrl')}/results/${runId}`, { waitUntil: 'networkidle' })
     const tiles = page.getByTestId('headline-tiles')
     await tiles.locator('[data-tile="loss100"]').waitFor()
