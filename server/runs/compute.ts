@@ -87,7 +87,6 @@ export interface SiteTiming extends SiteThreadTiming {
 const fromMean = (m: { mean: number, se: number }): Figure => figureFromEstimate(normalEstimate(m.mean, m.se))
 const fromCount = figureFromCount
 
-
 export function computeSite(task: SiteTask): SiteComputation {
   const startedAt = epochMs()
   const t0 = performance.now()

@@ -30,12 +30,18 @@ export function encodeSeries(values: Float64Array): string {
 
 /** The series back, as doubles; `length` values (the rest of the design is zero: direct strikes and sparking keep central + A only). */
 export function decodeSeries(text: string, length: number): Float64Array {
-  const bytes = Buffer.from(text, 'base64')
-  const f = new Float32Array(bytes.byteLength / 4)
-  new Uint8Array(f.buffer).set(bytes)
+  const f = decodeFloats(text)
   const out = new Float64Array(length)
   out.set(f.subarray(0, length))
   return out
+}
+
+/** The Float32 values of an encoded series, all of them. */
+function decodeFloats(text: string): Float32Array {
+  const bytes = Buffer.from(text, 'base64')
+  const f = new Float32Array(bytes.byteLength / 4)
+  new Uint8Array(f.buffer).set(bytes)
+  return f
 }
 
 export interface SiteDraws { site: StoredSiteDraws, tanks: StoredTankDraws[] }
@@ -101,8 +107,5 @@ export function computeSiteYearDraws(site: SiteInput, assumptions: AssumptionSet
 
 /** The quadruples of a site's re-simulated year tables back: (evaluation, year, year loss, largest event loss). */
 export function decodeYearTables(text: string): Float64Array {
-  const bytes = Buffer.from(text, 'base64')
-  const f = new Float32Array(bytes.byteLength / 4)
-  new Uint8Array(f.buffer).set(bytes)
-  return Float64Array.from(f)
+  return Float64Array.from(decodeFloats(text))
 }

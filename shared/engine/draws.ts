@@ -18,6 +18,7 @@
 import type { AssumptionSet } from './assumptions'
 import { assumptionParameterMeta, assumptionSetSchema, EngineInputError } from './assumptions'
 import { SPEED_OF_LIGHT_M_PER_S } from './induction'
+import { CURRENT_LAW_PATHS } from './uncertainty-ranges'
 import { normalCdf, normalQuantile } from './normal'
 import { createStream } from './random'
 import { emptyUncertainty, type UncertainAssumption, type UncertainDistribution } from './uncertainty-types'
@@ -57,8 +58,8 @@ export interface DrawFactor { paths: string[]; path: string; label: string; unit
 
 /**
  * Most factors a plan analyses one by one. Each factor costs K evaluations (1 + K·(2 + factors) in
- * all); above this the assumptions are taken in natural groups (naturalGroupOf), which keeps the
- * cost of a run with draws within 0.2 × K single runs on the benchmark portfolio (bench/draws.ts).
+ * all); above this the assumptions are taken in natural groups (naturalGroupOf): 7 factors for the
+ * 26 default ranges, 0.35 × K single runs over the benchmark portfolio (bench/draws.ts, docs/engine.md).
  */
 export const MAX_SINGLE_FACTORS = 10
 
@@ -73,10 +74,10 @@ export const MAX_SINGLE_FACTORS = 10
 export function naturalGroupOf(path: string, coarse = false): { key: string; label: string } {
   const t = /^thresholds\.([a-z_]+)\.(u50Kv|sigma)$/.exec(path)
   // Every class together: each sparking factor costs a full set of sparking probabilities per
-  // evaluation (draw-figures.ts), so one group per class (4 of them) kept the default ranges at
-  // 0.26 × K single runs; taken together, below 0.2 × K.
+  // evaluation (draw-figures.ts); one group per class (4 of them) cost 0.26 × K single runs on 40
+  // bench sites with the default ranges, taken together 0.18 × K there.
   if (t) return { key: 'thresholds', label: 'Sparking levels and scatter (every component class)' }
-  if (['powerLawMedianKa', 'powerLawExponent', 'lognormalMedianKa', 'lognormalBeta'].includes(path)) return { key: 'currentLaw', label: 'Peak-current law' }
+  if (CURRENT_LAW_PATHS.includes(path)) return { key: 'currentLaw', label: 'Peak-current law' }
   if (path === FLASH_DENSITY_FACTOR_PATH) return { key: 'flashDensity', label: 'Flash density' }
   if (path === 'returnStrokeVelocity') return { key: 'coupling', label: 'Coupling (return-stroke velocity)' }
   if (/^ignition/.test(path) || path === 'vapourControlFactor') return { key: 'ignition', label: 'Ignition' }

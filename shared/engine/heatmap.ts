@@ -143,7 +143,6 @@ export function siteEventBands(site: SiteInput, assumptions: AssumptionSet, opti
   let totalSumSq = 0
   let batches = 0
   let drawn = 0
-  let largestShareSe = 0
   const flash: Candidate = { x: 0, y: 0, currentKa: 0, lnI: 0, cell: 0 }
   while (drawn < maxSamples) {
     const size = Math.min(batch, maxSamples - drawn)
@@ -180,10 +179,10 @@ export function siteEventBands(site: SiteInput, assumptions: AssumptionSet, opti
     totalSumSq += batchTotal * batchTotal
     if (!precision || drawn < precision.minSamples || batches < 2 || size < batch) continue
     const check = batchPrecision(sum, sumSq, cross, totalSumSq, batches)
-    largestShareSe = check.largestShareSe
     if (check.total > 0 && check.largestShareSe <= precision.shareSe && check.totalRse <= precision.totalRse) break
   }
-  if (precision && batches >= 2) largestShareSe = batchPrecision(sum, sumSq, cross, totalSumSq, batches).largestShareSe
+  // The precision of what was drawn (the same sums the last check read when the rule stopped it).
+  const largestShareSe = precision && batches >= 2 ? batchPrecision(sum, sumSq, cross, totalSumSq, batches).largestShareSe : 0
   const weight = env.totalRate / drawn
   const rate = Array.from({ length: nCurrent }, (_, b) => Array.from(sum.subarray(b * nDistance, (b + 1) * nDistance), (v) => v * weight))
   const total = rate.reduce((s, row) => s + row.reduce((a, b) => a + b, 0), 0)

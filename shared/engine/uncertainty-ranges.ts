@@ -12,6 +12,9 @@ import type { UncertainAssumption, UncertainDistribution } from './uncertainty-t
  * site input, not an assumption-set number, so its uncertainty is a factor on whatever each site holds.
  */
 export const FLASH_DENSITY_FACTOR_PATH = 'flashDensityFactor'
+
+/** The peak-current law's parameters (one natural group of the draws; calibrated from lightning records). */
+export const CURRENT_LAW_PATHS: readonly string[] = ['powerLawMedianKa', 'powerLawExponent', 'lognormalMedianKa', 'lognormalBeta']
 export const FLASH_DENSITY_FACTOR_LABEL = 'Flash density factor (× every site\'s ground flash density Ng)'
 
 /** A valid range [min, max] of one value; an open end excludes its bound (e.g. U50 > 0 kV). */

@@ -3,6 +3,7 @@
 //
 // The index shapes are those the engine's sensitivity estimator returns (shared/engine/sensitivity.ts).
 import type { IndexEstimate, SensitivityIndex, SensitivityResult } from '../engine/sensitivity'
+import { CURRENT_LAW_PATHS, FLASH_DENSITY_FACTOR_PATH } from '../engine/uncertainty-ranges'
 
 export type { SensitivityIndex, SensitivityResult } from '../engine/sensitivity'
 
@@ -59,7 +60,7 @@ export function calibrationPageFor(path: string): CalibrationPage | null {
     return null
   }
   if (/^thresholds\.[a-z_]+\.(u50Kv|sigma)$/.test(path)) return IMPULSE
-  if (['lognormalMedianKa', 'lognormalBeta', 'powerLawMedianKa', 'powerLawExponent', 'flashDensityFactor'].includes(path)) return LIGHTNING
+  if (CURRENT_LAW_PATHS.includes(path) || path === FLASH_DENSITY_FACTOR_PATH) return LIGHTNING
   return null
 }
 
