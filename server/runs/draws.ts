@@ -67,7 +67,7 @@ export function computeSiteDraws(site: SiteInput, assumptions: AssumptionSet, dr
 /**
  * Simulated-years runs: every band draw re-simulated on the central streams (year-draws.ts), the
  * site's four figures and its return-period losses as central × X_k / X_0. Sensitivity indices are
- * not computed for years runs (their design would cost K·(2 + factors) re-simulations).
+ * not computed for years runs (their design would cost another N·factors re-simulations, N = ⌊K/2⌋).
  */
 export function computeSiteYearDraws(site: SiteInput, assumptions: AssumptionSet, draws: number, runSeed: number, years: number, clustering: SiteClustering | null, central: YearDrawFigures & { direct: number, sparking: number }): SiteDraws {
   const plan = runDrawPlan(assumptions, draws, runSeed)

@@ -2,11 +2,12 @@
 import { and, asc, eq, inArray, sql } from 'drizzle-orm'
 import { hostname } from 'node:os'
 import { parseAssumptions } from '../../shared/engine/assumptions'
+import { ENGINE_VERSION } from '../../shared/engine'
 import { siteClustering } from '../../shared/engine/storm-clusters'
 import { useDb } from '../db'
 import { assumptionSetVersions, runChunks, runs, runSiteSnapshots } from '../db/schema'
 import type { SiteComputation } from './compute'
-import { notifyRunEnded } from './ending'
+import { endRunUnsuccessfully, notifyRunEnded } from './ending'
 import { finaliseRun } from './finalise'
 import { storeRunDocuments } from '../results/documents'
 import { storeChunk } from './store'
@@ -27,6 +28,13 @@ export async function workChunk(runId: string, chunkIndex: number, queuedAt: num
   if (!run || !['queued', 'running'].includes(run.state)) return 'skipped'
   const [chunk] = await db.select().from(runChunks).where(and(eq(runChunks.runId, runId), eq(runChunks.chunkIndex, chunkIndex)))
   if (!chunk) return 'skipped'
+  if (run.engineVersion !== ENGINE_VERSION) {
+    // Workers upgraded in the middle of the run: figures of two engine versions would not make one
+    // consistent result (the draws' stored series change layout between versions, for one).
+    const ended = await endRunUnsuccessfully(runId, 'failed', `This run was started on engine ${run.engineVersion} and the workers now run engine ${ENGINE_VERSION}; its figures would mix the two. Retry the run to compute it on engine ${ENGINE_VERSION}.`)
+    if (ended) await notifyRunEnded(runId)
+    return 'skipped'
+  }
   if (chunk.state === 'done') return (await finaliseIfComplete(runId)) ? 'finalised' : 'duplicate'
   if (run.state === 'queued') {
     await db.update(runs).set({ state: 'running', startedAt: new Date() }).where(and(eq(runs.id, runId), eq(runs.state, 'queued')))

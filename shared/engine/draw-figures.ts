@@ -22,7 +22,7 @@
 // either, and with only the flash-density factor uncertain it is exactly the factor × central.
 import type { AssumptionSet } from './assumptions'
 import type { AssumptionDraw, DrawPlan } from './draws'
-import { planEvaluations } from './draws'
+import { designOffsets, planEvaluations } from './draws'
 import type { SiteInput } from './types'
 import type { PreparedSite } from './kernel'
 import { attachFlash, canSpark, lawSpec, phi, prepareSite, strikeRadius } from './kernel'
@@ -225,11 +225,20 @@ export function siteDrawValues(site: SiteInput, plan: DrawPlan, options: { runSe
   const lawPaths = LAW_PATHS[central.currentLaw]
   const lawDrawn = plan.entries.some((e) => lawPaths.includes(e.path))
   const baseLogDensity = lawDrawn ? logDensities(central, fr.lnI) : null
-  const lawWeights = new Float64Array(fr.weight.length)
-  const reweighted = (a: AssumptionSet): Float64Array => {
-    const logF = logDensities(a, fr.lnI)
-    for (let f = 0; f < logF.length; f++) lawWeights[f] = fr.weight[f]! * Math.exp(logF[f]! - baseLogDensity![f]!)
-    return lawWeights
+  const keys = evaluationKeys(plan, sets)
+  // The shared flashes' weights re-weighted to each drawn law, once per distinct law.
+  const lawWeights = new Map<number, Float64Array>()
+  const weightsOf = (e: number): Float64Array => {
+    if (!lawDrawn || keys.law[e] === keys.law[0]) return fr.weight
+    const key = keys.law[e]!
+    let w = lawWeights.get(key)
+    if (!w) {
+      const logF = logDensities(sets[e]!.assumptions, fr.lnI)
+      w = new Float64Array(F)
+      for (let f = 0; f < F; f++) w[f] = fr.weight[f]! * Math.exp(logF[f]! - baseLogDensity![f]!)
+      lawWeights.set(key, w)
+    }
+    return w
   }
   const spreadCentral = spreadTable(site, central)
   const spreadDrawn = plan.entries.some((e) => e.path.startsWith('fireSpread.'))
@@ -237,7 +246,6 @@ export function siteDrawValues(site: SiteInput, plan: DrawPlan, options: { runSe
   const logCoef = new Float64Array(ps.classLogCoef.length)
   const invSigma = new Float64Array(ps.classLogCoef.length)
   const pD = new Float64Array(nT), pS = new Float64Array(nT), loss = new Float64Array(nT)
-  const acc = new Float64Array(nT * 4)
   const q = new Float64Array(nT), escape = new Float64Array(nT)
   const touched = new Int32Array(nT)
   const { evStart, evTank, evClassX, classX } = fr
@@ -248,13 +256,15 @@ export function siteDrawValues(site: SiteInput, plan: DrawPlan, options: { runSe
   // share (A_B^g for a factor g that is not one of them has A's values): evaluations are grouped by
   // those values and the probabilities computed once per group.
   const pEvent = new Float64Array(evTank.length)
-  const sparkKey = (a: AssumptionSet) => `${couplingCoefficient(a)}|${JSON.stringify(a.thresholds)}`
-  const groups = new Map<string, number[]>()
+  // The sums over the shared flashes of an evaluation (direct, sparking, ignition, spread per tank)
+  // depend on neither the flash-density factor nor the damage ratios (they scale the figures after):
+  // one sum serves every evaluation with the same other values (A_B^g of those factors has A's).
+  const sums = new Map<number, Float64Array>()
+  const groups = new Map<number, number[]>()
   for (let e = 0; e < E; e++) {
-    const key = sparkKey(sets[e]!.assumptions)
-    const g = groups.get(key)
+    const g = groups.get(keys.spark[e]!)
     if (g) g.push(e)
-    else groups.set(key, [e])
+    else groups.set(keys.spark[e]!, [e])
   }
   for (const members of groups.values()) {
     const first = sets[members[0]!]!.assumptions
@@ -285,15 +295,33 @@ export function siteDrawValues(site: SiteInput, plan: DrawPlan, options: { runSe
 
   function evaluate(e: number): void {
     const a = sets[e]!.assumptions
+    site.tanks.forEach((tank, t) => { loss[t] = expectedBurningTankLoss(tank, a).total })
+    let acc = sums.get(keys.sum[e]!)
+    if (!acc) {
+      acc = flashSums(e)
+      sums.set(keys.sum[e]!, acc)
+    }
+    const scale = site.flashDensity * sets[e]!.flashDensityFactor * 1e-6 / samples
+    for (let t = 0; t < nT; t++) {
+      const o = (e * nT + t) * M
+      values[o] = scale * acc[t * 4]!
+      values[o + 1] = scale * acc[t * 4 + 1]!
+      values[o + 2] = scale * acc[t * 4 + 2]!
+      values[o + 3] = scale * (acc[t * 4 + 2]! + acc[t * 4 + 3]!) * loss[t]!
+    }
+  }
+
+  /** Per tank, the weighted sums over the shared flashes of direct strikes, sparking, ignition and fires by spread. */
+  function flashSums(e: number): Float64Array {
+    const a = sets[e]!.assumptions
     site.tanks.forEach((tank, t) => {
       pD[t] = ignitionGivenDirect(tank, a)
       pS[t] = hasInducedSparking(tank) ? ignitionGivenSpark(tank, a) : 0
-      loss[t] = expectedBurningTankLoss(tank, a).total
     })
     const spread = spreadDrawn ? spreadTable(site, a) : spreadCentral
     // Importance re-weighting of the shared currents to the drawn law: w·f_k(ln I)/f_0(ln I).
-    const w8 = lawDrawn && e > 0 ? reweighted(a) : fr.weight
-    acc.fill(0)
+    const w8 = weightsOf(e)
+    const acc = new Float64Array(nT * 4)
     const spreadStart = spread.spreadStart, spreadTank = spread.spreadTank, spreadProbability = spread.spreadProbability
     const hasSpread = spreadTank.length > 0
     for (let f = 0; f < F; f++) {
@@ -324,16 +352,45 @@ export function siteDrawValues(site: SiteInput, plan: DrawPlan, options: { runSe
       }
       for (let i = 0; i < nTouched; i++) q[touched[i]!] = 0
     }
-    const scale = site.flashDensity * sets[e]!.flashDensityFactor * 1e-6 / samples
-    for (let t = 0; t < nT; t++) {
-      const o = (e * nT + t) * M
-      values[o] = scale * acc[t * 4]!
-      values[o + 1] = scale * acc[t * 4 + 1]!
-      values[o + 2] = scale * acc[t * 4 + 2]!
-      values[o + 3] = scale * (acc[t * 4 + 2]! + acc[t * 4 + 3]!) * loss[t]!
-    }
+    return acc
   }
   return { evaluations: E, nTanks: nT, values, flashes: F, factors }
+}
+
+/** Per evaluation of a plan, numbered keys of what its parts depend on (equal key, equal values). */
+interface EvaluationKeys {
+  /** The coupling and every class's sparking level and scatter: the events' sparking probabilities. */
+  spark: Int32Array
+  /** The current law: the shared flashes' weights. */
+  law: Int32Array
+  /** Everything but the flash-density factor and the damage ratios: the sums over the shared flashes. */
+  sum: Int32Array
+}
+
+const planKeys = new WeakMap<DrawPlan, EvaluationKeys>()
+
+/** Built once per plan (every site of a run shares it). */
+function evaluationKeys(plan: DrawPlan, sets: readonly AssumptionDraw[]): EvaluationKeys {
+  const known = planKeys.get(plan)
+  if (known && known.spark.length === sets.length) return known
+  const numbering = () => {
+    const ids = new Map<string, number>()
+    return (text: string) => {
+      let id = ids.get(text)
+      if (id === undefined) ids.set(text, id = ids.size)
+      return id
+    }
+  }
+  const spark = numbering(), law = numbering(), sum = numbering()
+  const keys: EvaluationKeys = { spark: new Int32Array(sets.length), law: new Int32Array(sets.length), sum: new Int32Array(sets.length) }
+  sets.forEach((d, e) => {
+    const a = d.assumptions
+    keys.spark[e] = spark(`${couplingCoefficient(a)}|${JSON.stringify(a.thresholds)}`)
+    keys.law[e] = law(JSON.stringify([lawSpec(a), a.currentMinKa, a.currentMaxKa]))
+    keys.sum[e] = sum(JSON.stringify({ ...a, damageRatio: null }))
+  })
+  planKeys.set(plan, keys)
+  return keys
 }
 
 function componentClassKey(ps: PreparedSite, c: number): keyof AssumptionSet['thresholds'] {
@@ -393,14 +450,15 @@ export function drawsOf(series: Float64Array, K: number): Float64Array {
 }
 
 /** Sensitivity indices of one metric from its series over the plan's evaluations. */
-export function sensitivityOf(series: Float64Array, plan: Pick<DrawPlan, 'draws' | 'factors'>, metric: SensitivityResult['metric'], seed: string | number): SensitivityResult {
-  const K = plan.draws
-  const fA = series.subarray(1, 1 + K)
-  const fB = series.subarray(1 + K, 1 + 2 * K)
-  const fAB = plan.factors.map((_, g) => series.subarray(1 + (2 + g) * K, 1 + (3 + g) * K))
+export function sensitivityOf(series: Float64Array, plan: Pick<DrawPlan, 'draws' | 'baseSamples' | 'factors'>, metric: SensitivityResult['metric'], seed: string | number): SensitivityResult {
+  const N = plan.baseSamples
+  const at = designOffsets(plan)
+  const fA = series.subarray(at.a, at.a + N)
+  const fB = series.subarray(at.b, at.b + N)
+  const fAB = at.ab.map((o) => series.subarray(o, o + N))
   const s = sobolIndices({ fA, fB, fAB }, { seed: `${seed}|${metric}` })
   return {
-    metric, baseSamples: K,
+    metric, baseSamples: N,
     indices: plan.factors.map((f, g) => ({ path: f.path, label: f.label, unit: f.unit, ...(f.members ? { members: f.members } : {}), firstOrder: s.firstOrder[g]!, totalEffect: s.totalEffect[g]! }))
       .sort((x, y) => y.totalEffect.estimate - x.totalEffect.estimate),
   }

@@ -6,11 +6,16 @@
 //   range: u' = F(lo) + u·(F(hi) − F(lo)), x = F⁻¹(u').
 // - Correlations by a Gaussian copula: independent standard normals z, correlated as L·z with L
 //   the Cholesky factor of the correlation matrix (refused when not positive definite), u = Φ(L·z).
-// - The z of each input are Latin-hypercube stratified (McKay, Beckman & Conover 1979): one draw in
-//   each of N equal-probability strata, in a random order.
-// - Saltelli's design (sensitivity.ts): matrices A (the band draws) and B, and per factor g the
-//   matrix A_B^g (A with factor g's z from B). Correlated assumptions form one factor (a group),
-//   so swapping a factor keeps the copula's correlation inside it.
+// - The K band draws are two independent Latin hypercubes (McKay, Beckman & Conover 1979) of
+//   ⌈K/2⌉ and ⌊K/2⌋ rows: in each, the z of each input has one draw in each equal-probability
+//   stratum, in a random order.
+// - Saltelli's design (sensitivity.ts) with N = ⌊K/2⌋ base rows: A is the first N rows of the first
+//   hypercube, B the second hypercube (independent of A, as the estimators need), and per factor g
+//   the matrix A_B^g (A with factor g's z from B). So f(A) and f(B) are band draws already computed,
+//   and the design adds factors × N evaluations to the K + 1 of the bands (instead of
+//   (factors + 1) × K with a separate B of K rows): the indices' bootstrap error shows the price of
+//   the smaller N. Correlated assumptions form one factor (a group), so swapping a factor keeps the
+//   copula's correlation inside it.
 // - A drawn damage-ratio standard deviation that is too large for its drawn mean (a beta on [0, 1]
 //   needs sd² < mean·(1 − mean)) is clamped to 0.99·√(mean·(1 − mean)); the count of clamped values
 //   is reported. Every drawn set is then validated by the assumption schema.
@@ -57,9 +62,9 @@ export interface AssumptionDraw { assumptions: AssumptionSet; flashDensityFactor
 export interface DrawFactor { paths: string[]; path: string; label: string; unit: string; members?: { path: string; label: string; unit: string }[] }
 
 /**
- * Most factors a plan analyses one by one. Each factor costs K evaluations (1 + K·(2 + factors) in
- * all); above this the assumptions are taken in natural groups (naturalGroupOf): 7 factors for the
- * 26 default ranges, 0.35 × K single runs over the benchmark portfolio (bench/draws.ts, docs/engine.md).
+ * Most factors a plan analyses one by one. Each factor costs N = ⌊K/2⌋ evaluations (1 + K + N·factors
+ * in all); above this the assumptions are taken in natural groups (naturalGroupOf): 7 factors for
+ * the 26 default ranges (bench/draws.ts and docs/engine.md give the cost over the benchmark portfolio).
  */
 export const MAX_SINGLE_FACTORS = 10
 
@@ -87,17 +92,20 @@ export function naturalGroupOf(path: string, coarse = false): { key: string; lab
 }
 
 export interface DrawPlan {
-  /** K: rows of A (the band draws) and of B. */
+  /** K: the band draws. */
   draws: number
+  /** N = ⌊K/2⌋: rows of A, of B and of every A_B^g of the sensitivity design. */
+  baseSamples: number
   entries: { path: string; label: string; unit: string }[]
   factors: DrawFactor[]
   central: AssumptionDraw
-  /** The band draws (matrix A of the design). */
+  /** The K band draws: two independent Latin hypercubes, of ⌈K/2⌉ then ⌊K/2⌋ rows. Matrix A of the design is a[0 … N − 1]. */
   a: AssumptionDraw[]
+  /** Matrix B of the design: the second hypercube, a[⌈K/2⌉ …] (the same objects; not evaluated apart). */
   b: AssumptionDraw[]
-  /** ab[g][j]: row j of A with factor g's values from B. */
+  /** ab[g][j]: row j of A with factor g's values from B (N rows each). */
   ab: AssumptionDraw[][]
-  /** Drawn values of each entry in A (per entry, K values), for tests and reports. */
+  /** Drawn values of each entry in the K band draws (per entry, K values), for tests and reports. */
   valuesA: Float64Array[]
   /** Damage-ratio standard deviations clamped to stay valid (over every set of the design). */
   clamped: number
@@ -105,13 +113,19 @@ export interface DrawPlan {
   leftOut: { path: string; reason: string }[]
 }
 
-/** Order of the evaluations of a plan: central, A (K), B (K), then A_B^g for each factor (K each). */
+/** Order of the evaluations of a plan: central, the K band draws (A and B among them), then A_B^g for each factor (N each). */
 export function planEvaluations(plan: DrawPlan): AssumptionDraw[] {
-  return [plan.central, ...plan.a, ...plan.b, ...plan.ab.flat()]
+  return [plan.central, ...plan.a, ...plan.ab.flat()]
 }
 
-export function evaluationCount(plan: Pick<DrawPlan, 'draws' | 'factors'>): number {
-  return 1 + plan.draws * (2 + plan.factors.length)
+export function evaluationCount(plan: Pick<DrawPlan, 'draws' | 'baseSamples' | 'factors'>): number {
+  return 1 + plan.draws + plan.baseSamples * plan.factors.length
+}
+
+/** Where the design's rows sit among the evaluations (planEvaluations order): f(A), f(B) and each f(A_B^g) start there, N rows each. */
+export function designOffsets(plan: Pick<DrawPlan, 'draws' | 'baseSamples' | 'factors'>): { a: number; b: number; ab: number[] } {
+  const N = plan.baseSamples
+  return { a: 1, b: 1 + Math.ceil(plan.draws / 2), ab: plan.factors.map((_, g) => 1 + plan.draws + g * N) }
 }
 
 interface Range { lo: number; hi: number }
@@ -306,8 +320,12 @@ export function planAssumptionDraws(central: AssumptionSet, options: { draws: nu
   })
   const samplers = entries.map(truncatedSampler)
   const rand = createStream(options.runSeed, 'assumptions', 'draws')
-  const zA = lhsNormals(K, n, rand)
-  const zB = lhsNormals(K, n, rand)
+  const firstRows = Math.ceil(K / 2)
+  const N = Math.floor(K / 2)
+  const z1 = lhsNormals(firstRows, n, rand)
+  const z2 = lhsNormals(N, n, rand)
+  // z of input i in band draw j (rows of the first hypercube, then of the second)
+  const zBand = (i: number, j: number): number => (j < firstRows ? z1[i]![j]! : z2[i]![j - firstRows]!)
   let clamped = 0
 
   const build = (z: (i: number) => number): { draw: AssumptionDraw; values: Float64Array } => {
@@ -340,16 +358,15 @@ export function planAssumptionDraws(central: AssumptionSet, options: { draws: nu
   }
   const a: AssumptionDraw[] = []
   const valuesA = entries.map(() => new Float64Array(K))
-  const b: AssumptionDraw[] = []
   for (let j = 0; j < K; j++) {
-    const row = build((i) => zA[i]![j]!)
+    const row = build((i) => zBand(i, j))
     a.push(row.draw)
     row.values.forEach((v, i) => { valuesA[i]![j] = v })
-    b.push(build((i) => zB[i]![j]!).draw)
   }
+  const b = a.slice(firstRows, firstRows + N)
   const ab = groups.map((g) => {
     const members = new Set(g)
-    return Array.from({ length: K }, (_, j) => build((i) => (members.has(i) ? zB[i]! : zA[i]!)[j]!).draw)
+    return Array.from({ length: N }, (_, j) => build((i) => (members.has(i) ? z2[i]![j]! : z1[i]![j]!)).draw)
   })
   const labelled = entries.map((e) => ({ path: e.path, ...pathLabel(e.path) }))
   const factors = groups.map((g): DrawFactor => {
@@ -363,7 +380,7 @@ export function planAssumptionDraws(central: AssumptionSet, options: { draws: nu
     return { paths, path: paths.join(' + '), label, unit: '—', members }
   })
   return {
-    draws: K, entries: labelled, factors, leftOut,
+    draws: K, baseSamples: N, entries: labelled, factors, leftOut,
     central: { assumptions: central, flashDensityFactor: 1 },
     a, b, ab, valuesA, clamped,
   }

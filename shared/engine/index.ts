@@ -2,7 +2,7 @@
 // database, so the same code runs in the server, in worker threads and in the browser.
 
 /** Bumped whenever a change can alter any number the engine produces for the same input and seed. */
-export const ENGINE_VERSION = '2.4.0'
+export const ENGINE_VERSION = '2.5.0'
 
 export type {
   ComponentClass, TankMaterial, Contents, StructureKind, ComponentInput, TankInput, StructureInput, SiteInput,

@@ -33,7 +33,7 @@ export interface StoredPortfolioDraws {
   draws: number
   bands: DrawBands
   sensitivity: SensitivityResult[]
-  /** Evaluations of the design (1 + K·(2 + factors)) and drawn damage-ratio sds clamped to stay valid. */
+  /** Evaluations of the design (1 + K + N·factors, N = ⌊K/2⌋; 1 + K·(2 + factors) for runs before engine 2.5.0) and drawn damage-ratio sds clamped to stay valid. */
   evaluations: number
   clamped: number
   /** Illustrative ranges on assumptions the draws cannot carry, left out (absent for none). */

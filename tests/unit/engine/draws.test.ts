@@ -2,13 +2,14 @@
 // (issue "How sure are we"). Every expected value is a closed form or a published table.
 import { describe, expect, it } from 'vitest'
 import { parseAssumptions } from '../../../shared/engine/assumptions'
-import { planAssumptionDraws } from '../../../shared/engine/draws'
-import { bandOf, drawsOf, siteDrawValues, summariseSiteDraws } from '../../../shared/engine/draw-figures'
+import { planAssumptionDraws, planEvaluations } from '../../../shared/engine/draws'
+import { bandOf, drawsOf, sensitivityOf, siteDrawValues, summariseSiteDraws } from '../../../shared/engine/draw-figures'
 import { sobolIndices } from '../../../shared/engine/sensitivity'
 import { ruskCoupling } from '../../../shared/engine/induction'
 import { lateralAttractionDistance } from '../../../shared/engine/attachment'
 import { isolatedTankQuadrature } from '../../../shared/engine/quadrature'
 import { createStream } from '../../../shared/engine/random'
+import { expectedBurningTankLoss } from '../../../shared/engine/loss'
 import { battery, makeSite, makeTank } from './fixtures'
 
 const lognormal = (path: string, median: number, sigmaLn: number) => ({ path, distribution: { kind: 'lognormal' as const, median, sigmaLn }, basis: 'analyst' as const, note: '' })
@@ -78,10 +79,17 @@ describe('draws honour correlations and bounds', () => {
     // a correlated pair is one factor of the sensitivity analysis
     expect(plan.factors.map((f) => f.paths.length)).toEqual([2, 1, 1])
   })
-  it('the Latin hypercube puts one draw in each of K strata of each marginal', () => {
-    // ln U50 ~ N(ln 70, 0.2): stratum of each draw = ⌊K·Φ(z)⌋, all different
-    const strata = new Set(Array.from(plan.valuesA[0]!, (v) => Math.floor(K * (0.5 + 0.5 * erf((Math.log(v / 70) / 0.2) / Math.SQRT2)))))
-    expect(strata.size).toBe(K)
+  it('each of the two Latin hypercubes of the band draws puts one draw in each of its strata of each marginal', () => {
+    // ln U50 ~ N(ln 70, 0.2): stratum of a draw among n = ⌊n·Φ(z)⌋, all different within each hypercube
+    // (McKay, Beckman & Conover 1979); the first holds ⌈K/2⌉ rows, the second ⌊K/2⌋
+    const stratum = (v: number, n: number) => Math.floor(n * (0.5 + 0.5 * erf((Math.log(v / 70) / 0.2) / Math.SQRT2)))
+    const first = Array.from(plan.valuesA[0]!.subarray(0, K / 2), (v) => stratum(v, K / 2))
+    const second = Array.from(plan.valuesA[0]!.subarray(K / 2), (v) => stratum(v, K / 2))
+    expect(new Set(first).size).toBe(K / 2)
+    expect(new Set(second).size).toBe(K / 2)
+    // B of the sensitivity design is the second hypercube itself (no evaluations of its own)
+    expect(plan.baseSamples).toBe(K / 2)
+    expect(plan.b).toEqual(plan.a.slice(K / 2))
   })
   it('truncation to the valid range and to the given bounds', () => {
     const crude = Array.from(plan.valuesA[2]!)
@@ -225,6 +233,75 @@ describe('propagation on common random numbers', () => {
     // crude ignition is drawn: tank B (crude) moves, and so does the site's band
     expect(s.tanks[1]!.ignition.p95).toBeGreaterThan(s.tanks[1]!.ignition.p05)
     expect(s.sensitivity.map((r) => r.indices.length)).toEqual([2, 2])
+  })
+
+  it('the plan\'s design (A and B among the band draws, A_B^g) estimates the indices of an additive model within 3 bootstrap standard errors', () => {
+    // Y = ln f + 2 ln U50 with ln f ~ N(0, 0.3²) and ln U50 ~ N(ln 100, 0.2²) independent: an additive
+    // model, S_i = ST_i = V_i / V (closed form; Saltelli et al. 2008, "Global Sensitivity Analysis.
+    // The Primer", §1.2): V_f = 0.09, V_U = 4 × 0.04 = 0.16, so S_f = 0.36 and S_U = 0.64.
+    const set = parseAssumptions({ uncertainty: { entries: [lognormal('flashDensityFactor', 1, 0.3), lognormal('thresholds.grounded_pipe.u50Kv', 100, 0.2)], correlations: [] } })
+    const plan = planAssumptionDraws(set, { draws: 500, runSeed: 31 })
+    const series = Float64Array.from(planEvaluations(plan), (d) => Math.log(d.flashDensityFactor) + 2 * Math.log(d.assumptions.thresholds.grounded_pipe.u50Kv))
+    const r = sensitivityOf(series, plan, 'aal', 31)
+    expect(r.baseSamples).toBe(250)
+    const expected: Record<string, number> = { flashDensityFactor: 0.36, 'thresholds.grounded_pipe.u50Kv': 0.64 }
+    for (const i of r.indices) {
+      expect(Math.abs(i.firstOrder.estimate - expected[i.path]!)).toBeLessThanOrEqual(3 * i.firstOrder.se)
+      expect(Math.abs(i.totalEffect.estimate - expected[i.path]!)).toBeLessThanOrEqual(3 * i.totalEffect.se)
+      expect(i.firstOrder.se).toBeLessThan(0.1)
+    }
+  })
+
+  it('an A_B^g evaluation moves only the figures its factor acts on (the sums shared across evaluations are the right ones)', () => {
+    // Each factor's effect by the model's structure (MODEL.md: rate = Ng × flash sums; loss = fires ×
+    // expected loss of a burning tank): the flash-density factor scales every figure, the damage ratios
+    // only the loss, ignition given a spark the ignition and the loss but not strikes or sparking, fire
+    // spread only the loss, the sparking level sparking, ignition and loss.
+    const set = parseAssumptions({ uncertainty: { entries: [
+      lognormal('flashDensityFactor', 1, 0.3),
+      { path: 'ignitionGivenSpark.crude', distribution: { kind: 'uniform', min: 0.1, max: 0.5 }, basis: 'analyst', note: '' },
+      { path: 'damageRatio.replacement.mean', distribution: { kind: 'uniform', min: 0.4, max: 0.9 }, basis: 'analyst', note: '' },
+      { path: 'fireSpread.probabilityAtContact', distribution: { kind: 'uniform', min: 0.1, max: 0.5 }, basis: 'analyst', note: '' },
+      lognormal('thresholds.grounded_pipe.u50Kv', 100, 0.3),
+    ], correlations: [] } })
+    const site = battery({ tanks: battery().tanks.map((t) => ({ ...t, contents: 'crude' as const })) })
+    const plan = planAssumptionDraws(set, { draws: 50, runSeed: 21 })
+    const v = siteDrawValues(site, plan, { runSeed: 21, samples: 2000 })
+    const nT = site.tanks.length
+    const at = (e: number, t: number, m: number) => v.values[(e * nT + t) * 4 + m]!
+    const factorOf = (p: string) => plan.factors.findIndex((f) => f.path === p)
+    const offsets = (g: number) => 1 + plan.draws + g * plan.baseSamples
+    const rel = (x: number, y: number) => Math.abs(x - y) / Math.max(Math.abs(y), 1e-300)
+    const moved = { ignition: 0, spread: 0, sparking: 0 }
+    for (let j = 0; j < plan.baseSamples; j++) {
+      const A = 1 + j
+      for (let t = 0; t < nT; t++) {
+        // flash density: every figure × f_B / f_A
+        const fd = offsets(factorOf('flashDensityFactor')) + j
+        const ratio = plan.ab[factorOf('flashDensityFactor')]![j]!.flashDensityFactor / plan.a[j]!.flashDensityFactor
+        for (let m = 0; m < 4; m++) expect(rel(at(fd, t, m), at(A, t, m) * ratio)).toBeLessThan(1e-12)
+        // damage: strikes, sparking and ignition as A; the loss as the expected loss of a burning tank
+        const dm = offsets(factorOf('damageRatio.replacement.mean')) + j
+        for (let m = 0; m < 3; m++) expect(at(dm, t, m)).toBe(at(A, t, m))
+        const lossRatio = expectedBurningTankLoss(site.tanks[t]!, plan.ab[factorOf('damageRatio.replacement.mean')]![j]!.assumptions).total / expectedBurningTankLoss(site.tanks[t]!, plan.a[j]!.assumptions).total
+        expect(rel(at(dm, t, 3), at(A, t, 3) * lossRatio)).toBeLessThan(1e-12)
+        // ignition: strikes and sparking as A; ignition moves (tanks that can spark)
+        const ig = offsets(factorOf('ignitionGivenSpark.crude')) + j
+        for (let m = 0; m < 2; m++) expect(at(ig, t, m)).toBe(at(A, t, m))
+        if (at(A, t, 1) > 0 && at(ig, t, 2) !== at(A, t, 2)) moved.ignition++
+        // fire spread: strikes, sparking and ignition as A; only the loss moves
+        const sp = offsets(factorOf('fireSpread.probabilityAtContact')) + j
+        for (let m = 0; m < 3; m++) expect(at(sp, t, m)).toBe(at(A, t, m))
+        if (at(sp, t, 3) !== at(A, t, 3)) moved.spread++
+        // sparking level: direct strikes as A; sparking moves
+        const th = offsets(factorOf('thresholds.grounded_pipe.u50Kv')) + j
+        expect(at(th, t, 0)).toBe(at(A, t, 0))
+        if (at(th, t, 1) !== at(A, t, 1)) moved.sparking++
+      }
+    }
+    expect(moved.ignition).toBeGreaterThan(0)
+    expect(moved.spread).toBeGreaterThan(0)
+    expect(moved.sparking).toBeGreaterThan(0)
   })
 
   it('same inputs and seed → same values, whatever other sites are computed (chunks and workers)', () => {

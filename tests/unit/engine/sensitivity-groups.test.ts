@@ -94,11 +94,13 @@ describe('the plan takes natural groups when the assumptions are many', () => {
     expect(sparking.paths.length).toBe(8) // U50 and σ of the 4 component classes
     expect(sparking.paths.every((p) => p.startsWith('thresholds.'))).toBe(true)
     expect(calibrationPageFor(sparking.path)?.to).toBe('/calibration/impulse')
-    // the cost: 1 + K·(2 + factors) evaluations; A_B^g swaps the whole group
-    expect(evaluationCount(plan)).toBe(1 + K * (2 + plan.factors.length))
+    // the cost: 1 + K + N·factors evaluations (N = K/2: A and B are the band draws); A_B^g swaps the whole group
+    expect(plan.baseSamples).toBe(K / 2)
+    expect(evaluationCount(plan)).toBe(1 + K + (K / 2) * plan.factors.length)
     expect(plan.ab.length).toBe(plan.factors.length)
     const g = plan.factors.indexOf(sparking)
-    for (let j = 0; j < K; j++) {
+    for (let j = 0; j < K / 2; j++) {
+      expect(plan.b[j]).toBe(plan.a[K / 2 + j])
       const t = plan.ab[g]![j]!.assumptions.thresholds.sharp_device
       expect(t).toEqual(plan.b[j]!.assumptions.thresholds.sharp_device)
       expect(plan.ab[g]![j]!.assumptions.thresholds.grounded_pipe).toEqual(plan.b[j]!.assumptions.thresholds.grounded_pipe)
