@@ -79,6 +79,8 @@ describe('a run with assumption draws', () => {
     // The chart of each figure is drawn, and its top entry links to the page that calibrates it: every
     // uncertain assumption of this set has one (sparking levels: impulse tests; flash density: lightning records).
     await waitForDrawnChart(page, sensitivity.locator('[data-chart-metric="expectedFires"]'))
+    // the indices' base rows are half the draws (shared/engine/draws.ts), written as a count
+    expect(await sensitivity.textContent()).toMatch(/from \d+ base samples/)
     expect(await sensitivity.getByTestId('sensitivity-calibration-link').first().getAttribute('href')).toMatch(/^\/calibration\/(impulse|lightning)$/)
     await saveScreenshot(page, 'draws-dashboard')
 
